@@ -1,0 +1,22 @@
+// See https://svelte.dev/docs/kit/types#app.d.ts
+import type { TeamRole } from '$lib/server/db/queries/users';
+
+declare global {
+	namespace App {
+		interface Error {
+			message: string;
+			code?: string;
+			field?: string;
+		}
+		interface Locals {
+			user: { id: string; email: string; name: string } | null;
+			teams: TeamRole[];
+			team: TeamRole | null;
+		}
+		interface PageData {
+			user?: { id: string; email: string; name: string } | null;
+		}
+	}
+}
+
+export {};

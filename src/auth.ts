@@ -1,0 +1,44 @@
+// Auth.js for SvelteKit: e-mail and password sign-in, sessions as signed JWT cookies.
+import { SvelteKitAuth, CredentialsSignin } from '@auth/sveltekit';
+import Credentials from '@auth/sveltekit/providers/credentials';
+import type { RequestEvent } from '@sveltejs/kit';
+import { verifyCredentials } from '$lib/server/auth/sign-in';
+import { serverEnv } from '$lib/server/env';
+
+class RateLimited extends CredentialsSignin {
+	code = 'rate_limited';
+}
+
+/** Auth.js settings for one request (the client address feeds the sign-in rate limit). */
+function config(event: RequestEvent) {
+	const env = serverEnv();
+	return {
+		secret: env.AUTH_SECRET,
+		trustHost: env.AUTH_TRUST_HOST,
+		basePath: '/auth',
+		session: { strategy: 'jwt' as const, maxAge: 30 * 24 * 3600 },
+		pages: { signIn: '/signin', error: '/signin' },
+		providers: [
+			Credentials({
+				credentials: { email: { label: 'E-mail' }, password: { label: 'Password', type: 'password' } },
+				authorize: async (credentials) => {
+					const outcome = await verifyCredentials(credentials, event.getClientAddress());
+					if (outcome === 'rate_limited') throw new RateLimited();
+					return outcome;
+				}
+			})
+		],
+		callbacks: {
+			jwt({ token, user }: { token: Record<string, unknown>; user?: { id?: string } }) {
+				if (user?.id) token.sub = user.id;
+				return token;
+			},
+			session({ session, token }: { session: { user?: { id?: string } }; token: { sub?: string } }) {
+				if (session.user && token.sub) session.user.id = token.sub;
+				return session;
+			}
+		}
+	};
+}
+
+export const { handle, signIn, signOut } = SvelteKitAuth(async (event) => config(event));

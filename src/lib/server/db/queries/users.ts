@@ -1,0 +1,79 @@
+// Users, teams and memberships.
+import { and, asc, eq, gt, sql } from 'drizzle-orm';
+import type { Database } from '../connect';
+import { apiTokens, memberships, teams, users, type Role } from '../schema';
+
+export interface TeamRole {
+	id: string;
+	name: string;
+	role: Role;
+}
+
+/** The account with this (lower-case) e-mail, or null. */
+export async function findUserByEmail(db: Database, email: string) {
+	const [row] = await db.select().from(users).where(eq(users.email, email.toLowerCase())).limit(1);
+	return row ?? null;
+}
+
+/** The account with this id, without its password hash, or null. */
+export async function findUserById(db: Database, id: string) {
+	const [row] = await db
+		.select({ id: users.id, email: users.email, name: users.name })
+		.from(users)
+		.where(eq(users.id, id))
+		.limit(1);
+	return row ?? null;
+}
+
+/** The teams a user belongs to with the user's role in each, by name. */
+export function teamsOfUser(db: Database, userId: string): Promise<TeamRole[]> {
+	return db
+		.select({ id: teams.id, name: teams.name, role: memberships.role })
+		.from(memberships)
+		.innerJoin(teams, eq(teams.id, memberships.teamId))
+		.where(eq(memberships.userId, userId))
+		.orderBy(asc(teams.name));
+}
+
+/** Creates an account and its own team with the account as owner, in one transaction. */
+export async function createUserWithTeam(
+	db: Database,
+	input: { email: string; name: string; passwordHash: string; teamName: string }
+) {
+	return db.transaction(async (tx) => {
+		const [user] = await tx
+			.insert(users)
+			.values({ email: input.email.toLowerCase(), name: input.name, passwordHash: input.passwordHash })
+			.onConflictDoNothing()
+			.returning({ id: users.id, email: users.email, name: users.name });
+		if (!user) return null;
+		const [team] = await tx.insert(teams).values({ name: input.teamName }).returning({ id: teams.id });
+		await tx.insert(memberships).values({ teamId: team.id, userId: user.id, role: 'owner' });
+		return { user, teamId: team.id };
+	});
+}
+
+/** The account an unrevoked API token (by hash) belongs to, marking the token used; or null. */
+export async function userByApiToken(db: Database, tokenHash: string) {
+	const [row] = await db
+		.update(apiTokens)
+		.set({ lastUsedAt: sql`now()` })
+		.where(and(eq(apiTokens.tokenHash, tokenHash), sql`${apiTokens.revokedAt} is null`))
+		.returning({ userId: apiTokens.userId });
+	return row ? findUserById(db, row.userId) : null;
+}
+
+/** Stores a new API token hash for a user. */
+export async function createApiToken(db: Database, userId: string, name: string, tokenHash: string) {
+	const [row] = await db.insert(apiTokens).values({ userId, name, tokenHash }).returning({ id: apiTokens.id });
+	return row;
+}
+
+/** Number of members of a team with a role newer than a moment (used by tests and counts). */
+export async function countMembers(db: Database, teamId: string, since = new Date(0)) {
+	const [row] = await db
+		.select({ n: sql<number>`count(*)::int` })
+		.from(memberships)
+		.where(and(eq(memberships.teamId, teamId), gt(memberships.createdAt, since)));
+	return row.n;
+}

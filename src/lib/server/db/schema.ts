@@ -1,0 +1,288 @@
+// Linkwright's tables. Lengths in mm and angles in degrees wherever a column holds geometry.
+import { sql } from 'drizzle-orm';
+import {
+	bigserial,
+	boolean,
+	check,
+	customType,
+	doublePrecision,
+	index,
+	integer,
+	jsonb,
+	pgTable,
+	primaryKey,
+	text,
+	timestamp,
+	uniqueIndex,
+	uuid,
+	type AnyPgColumn
+} from 'drizzle-orm/pg-core';
+
+export const ROLES = ['owner', 'engineer', 'viewer'] as const;
+export const CORNER_POSITIONS = ['front_left', 'front_right', 'rear_left', 'rear_right'] as const;
+export const SUSPENSION_KINDS = ['double_wishbone', 'strut'] as const;
+export const DRIVE_LAYOUTS = ['fwd', 'rwd', 'awd'] as const;
+export const SHARE_SCOPES = ['revision', 'car'] as const;
+
+/** SQL `col IN ('a','b')` for a check constraint over a fixed set of values. */
+function oneOf(column: AnyPgColumn, values: readonly string[]) {
+	return sql`${column} in (${sql.raw(values.map((v) => `'${v}'`).join(', '))})`;
+}
+
+const bytea = customType<{ data: Buffer; driverData: Buffer }>({
+	dataType: () => 'bytea'
+});
+
+const created = () => timestamp('created_at', { withTimezone: true }).notNull().defaultNow();
+
+export const users = pgTable(
+	'users',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		email: text('email').notNull(),
+		name: text('name').notNull(),
+		passwordHash: text('password_hash').notNull(),
+		createdAt: created()
+	},
+	(t) => [uniqueIndex('users_email_key').on(t.email), check('users_email_lower', sql`${t.email} = lower(${t.email})`)]
+);
+
+export const teams = pgTable('teams', {
+	id: uuid('id').primaryKey().defaultRandom(),
+	name: text('name').notNull(),
+	settings: jsonb('settings').$type<Record<string, unknown>>().notNull().default({}),
+	createdAt: created()
+});
+
+export const memberships = pgTable(
+	'memberships',
+	{
+		teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+		userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+		role: text('role', { enum: ROLES }).notNull(),
+		createdAt: created()
+	},
+	(t) => [
+		primaryKey({ columns: [t.teamId, t.userId] }),
+		index('memberships_user_idx').on(t.userId),
+		check('memberships_role_check', oneOf(t.role, ROLES))
+	]
+);
+
+export const cars = pgTable(
+	'cars',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		series: text('series').notNull().default(''),
+		wheelbaseMm: doublePrecision('wheelbase_mm'),
+		cgHeightMm: doublePrecision('cg_height_mm'),
+		frontBrakeFraction: doublePrecision('front_brake_fraction'),
+		driveLayout: text('drive_layout', { enum: DRIVE_LAYOUTS }),
+		notes: text('notes').notNull().default(''),
+		targets: jsonb('targets').$type<unknown[]>().notNull().default([]),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created(),
+		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [
+		index('cars_team_idx').on(t.teamId, t.name),
+		check('cars_drive_layout_check', sql`${t.driveLayout} is null or ${oneOf(t.driveLayout, DRIVE_LAYOUTS)}`),
+		check('cars_wheelbase_positive', sql`${t.wheelbaseMm} is null or ${t.wheelbaseMm} > 0`),
+		check('cars_cg_positive', sql`${t.cgHeightMm} is null or ${t.cgHeightMm} > 0`),
+		check(
+			'cars_brake_fraction_range',
+			sql`${t.frontBrakeFraction} is null or (${t.frontBrakeFraction} >= 0 and ${t.frontBrakeFraction} <= 1)`
+		)
+	]
+);
+
+export const corners = pgTable(
+	'corners',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		carId: uuid('car_id').notNull().references(() => cars.id, { onDelete: 'cascade' }),
+		position: text('position', { enum: CORNER_POSITIONS }).notNull(),
+		kind: text('kind', { enum: SUSPENSION_KINDS }).notNull(),
+		// The baseline is a pointer kept on the corner, so revisions themselves never change.
+		baselineRevisionId: uuid('baseline_revision_id').references((): AnyPgColumn => revisions.id, {
+			onDelete: 'set null'
+		}),
+		createdAt: created()
+	},
+	(t) => [
+		uniqueIndex('corners_car_position_key').on(t.carId, t.position),
+		check('corners_position_check', oneOf(t.position, CORNER_POSITIONS)),
+		check('corners_kind_check', oneOf(t.kind, SUSPENSION_KINDS))
+	]
+);
+
+export const revisions = pgTable(
+	'revisions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		cornerId: uuid('corner_id').notNull().references(() => corners.id, { onDelete: 'cascade' }),
+		number: integer('number').notNull(),
+		label: text('label').notNull().default(''),
+		note: text('note').notNull().default(''),
+		kind: text('kind', { enum: SUSPENSION_KINDS }).notNull(),
+		geometry: jsonb('geometry').$type<Record<string, unknown>>().notNull(),
+		parentId: uuid('parent_id').references((): AnyPgColumn => revisions.id, { onDelete: 'restrict' }),
+		authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created()
+	},
+	(t) => [
+		uniqueIndex('revisions_corner_number_key').on(t.cornerId, t.number),
+		index('revisions_parent_idx').on(t.parentId),
+		check('revisions_number_positive', sql`${t.number} > 0`),
+		check('revisions_kind_check', oneOf(t.kind, SUSPENSION_KINDS))
+	]
+);
+
+export const uploads = pgTable(
+	'uploads',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+		revisionId: uuid('revision_id').references(() => revisions.id, { onDelete: 'set null' }),
+		filename: text('filename').notNull(),
+		contentType: text('content_type').notNull(),
+		sizeBytes: integer('size_bytes').notNull(),
+		sha256: text('sha256').notNull(),
+		bytes: bytea('bytes').notNull(),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created()
+	},
+	(t) => [index('uploads_team_idx').on(t.teamId, t.createdAt), index('uploads_revision_idx').on(t.revisionId)]
+);
+
+export const studies = pgTable(
+	'studies',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		cornerId: uuid('corner_id').notNull().references(() => corners.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		settings: jsonb('settings').$type<Record<string, unknown>>().notNull(),
+		results: jsonb('results').$type<Record<string, unknown>>(),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created(),
+		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('studies_corner_idx').on(t.cornerId, t.name)]
+);
+
+export const shareLinks = pgTable(
+	'share_links',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+		tokenHash: text('token_hash').notNull(),
+		scope: text('scope', { enum: SHARE_SCOPES }).notNull(),
+		revisionId: uuid('revision_id').references(() => revisions.id, { onDelete: 'cascade' }),
+		carId: uuid('car_id').references(() => cars.id, { onDelete: 'cascade' }),
+		note: text('note').notNull().default(''),
+		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+		revokedAt: timestamp('revoked_at', { withTimezone: true }),
+		lastOpenedAt: timestamp('last_opened_at', { withTimezone: true }),
+		openCount: integer('open_count').notNull().default(0),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created()
+	},
+	(t) => [
+		uniqueIndex('share_links_token_key').on(t.tokenHash),
+		index('share_links_revision_idx').on(t.revisionId, t.createdAt),
+		index('share_links_car_idx').on(t.carId, t.createdAt),
+		check('share_links_scope_check', oneOf(t.scope, SHARE_SCOPES)),
+		check(
+			'share_links_scope_target',
+			sql`(${t.scope} = 'revision' and ${t.revisionId} is not null) or (${t.scope} = 'car' and ${t.carId} is not null)`
+		)
+	]
+);
+
+export const invitations = pgTable(
+	'invitations',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+		email: text('email').notNull(),
+		role: text('role', { enum: ROLES }).notNull(),
+		tokenHash: text('token_hash').notNull(),
+		invitedBy: uuid('invited_by').references(() => users.id, { onDelete: 'set null' }),
+		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+		acceptedAt: timestamp('accepted_at', { withTimezone: true }),
+		cancelledAt: timestamp('cancelled_at', { withTimezone: true }),
+		createdAt: created()
+	},
+	(t) => [
+		uniqueIndex('invitations_token_key').on(t.tokenHash),
+		index('invitations_team_idx').on(t.teamId, t.createdAt),
+		check('invitations_role_check', oneOf(t.role, ROLES))
+	]
+);
+
+export const passwordResets = pgTable(
+	'password_resets',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+		tokenHash: text('token_hash').notNull(),
+		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+		usedAt: timestamp('used_at', { withTimezone: true }),
+		createdAt: created()
+	},
+	(t) => [uniqueIndex('password_resets_token_key').on(t.tokenHash), index('password_resets_user_idx').on(t.userId)]
+);
+
+export const apiTokens = pgTable(
+	'api_tokens',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		tokenHash: text('token_hash').notNull(),
+		lastUsedAt: timestamp('last_used_at', { withTimezone: true }),
+		revokedAt: timestamp('revoked_at', { withTimezone: true }),
+		createdAt: created()
+	},
+	(t) => [uniqueIndex('api_tokens_token_key').on(t.tokenHash), index('api_tokens_user_idx').on(t.userId)]
+);
+
+export const auditEvents = pgTable(
+	'audit_events',
+	{
+		id: bigserial('id', { mode: 'number' }).primaryKey(),
+		teamId: uuid('team_id').notNull().references(() => teams.id, { onDelete: 'cascade' }),
+		actorId: uuid('actor_id').references(() => users.id, { onDelete: 'set null' }),
+		action: text('action').notNull(),
+		subjectType: text('subject_type').notNull(),
+		subjectId: text('subject_id'),
+		detail: jsonb('detail').$type<Record<string, unknown>>().notNull().default({}),
+		createdAt: created()
+	},
+	(t) => [index('audit_events_team_idx').on(t.teamId, t.createdAt)]
+);
+
+export const loginAttempts = pgTable(
+	'login_attempts',
+	{
+		id: bigserial('id', { mode: 'number' }).primaryKey(),
+		email: text('email').notNull(),
+		address: text('address').notNull(),
+		succeeded: boolean('succeeded').notNull(),
+		createdAt: created()
+	},
+	(t) => [
+		index('login_attempts_email_idx').on(t.email, t.createdAt),
+		index('login_attempts_address_idx').on(t.address, t.createdAt)
+	]
+);
+
+export type User = typeof users.$inferSelect;
+export type Team = typeof teams.$inferSelect;
+export type Membership = typeof memberships.$inferSelect;
+export type Car = typeof cars.$inferSelect;
+export type Corner = typeof corners.$inferSelect;
+export type Revision = typeof revisions.$inferSelect;
+export type Role = (typeof ROLES)[number];

@@ -1,0 +1,61 @@
+// The one place that decides who may do what. Every protected load, action and API handler calls it.
+import { error, redirect, type RequestEvent } from '@sveltejs/kit';
+import { db } from '$lib/server/db';
+import { carForUser } from '$lib/server/db/queries/cars';
+import type { Role } from '$lib/server/db/schema';
+import type { TeamRole } from '$lib/server/db/queries/users';
+
+export type Action = 'view' | 'edit' | 'share' | 'manage_members';
+
+const ALLOWED: Record<Role, readonly Action[]> = {
+	owner: ['view', 'edit', 'share', 'manage_members'],
+	engineer: ['view', 'edit', 'share'],
+	viewer: ['view']
+};
+
+/** True when a role may perform an action. */
+export function can(role: Role | null | undefined, action: Action): boolean {
+	return role ? ALLOWED[role].includes(action) : false;
+}
+
+/** True for API routes, which answer JSON errors instead of redirecting to sign-in. */
+function isApi(event: RequestEvent) {
+	return event.route.id?.startsWith('/api/') ?? false;
+}
+
+/** The signed-in user; API calls without one get 401, pages redirect to sign-in. */
+export function requireUser(event: RequestEvent) {
+	const user = event.locals.user;
+	if (user) return user;
+	if (isApi(event)) error(401, { message: 'Sign in or send an API token', code: 'unauthenticated' });
+	const back = event.url.pathname + event.url.search;
+	redirect(303, `/signin?redirectTo=${encodeURIComponent(back)}`);
+}
+
+/** Stops with 403 naming the action the role lacks. */
+function forbid(action: Action): never {
+	error(403, { message: `Your role does not allow this (${action.replace('_', ' ')})`, code: 'forbidden' });
+}
+
+/** Stops with 404, the same answer whether the object is another team's or does not exist. */
+export function notFound(what = 'Not found'): never {
+	error(404, { message: what, code: 'not_found' });
+}
+
+/** The caller's membership of a team (the current team when teamId is omitted), checked for an action. */
+export function requireTeam(event: RequestEvent, action: Action, teamId?: string): TeamRole {
+	requireUser(event);
+	const team = teamId ? event.locals.teams.find((t) => t.id === teamId) : event.locals.team;
+	if (!team) notFound('Team not found');
+	if (!can(team.role, action)) forbid(action);
+	return team;
+}
+
+/** A car the caller may act on: 404 when it is not in one of their teams, 403 when their role lacks the action. */
+export async function requireCar(event: RequestEvent, carId: string, action: Action) {
+	const user = requireUser(event);
+	const found = await carForUser(db, user.id, carId);
+	if (!found) notFound('Car not found');
+	if (!can(found.role, action)) forbid(action);
+	return found;
+}
