@@ -1,0 +1,227 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; z = 0 ground at design ride height,
+// y = 0 centreline. Lengths in mm; angles in degrees here at the edge (radians inside).
+// Public API of the kinematics engine: contract-shaped samples (`corner-solve/1`).
+
+import { DEG } from './constants';
+import { compileCorner, isFault, SPRING_NONE, KIND_STRUT, type CornerInput, type CornerModel } from './corner';
+import * as F from './measures';
+import { FAIL_LINK } from './solve';
+import { POINT_NAMES, runSweep, SweepBuffer, type SweepSpec } from './sweep';
+
+export type { CornerInput, PointTuple, VehicleInput } from './corner';
+export { POINT_NAMES } from './sweep';
+
+/** Sweep kinds of the contract. */
+export type SweepKind = 'heave' | 'roll' | 'steer';
+
+/** A sweep request: grid in mm (heave travel, steer rack) or degrees (roll); `rack` held in heave and roll (mm, default 0). */
+export interface SweepOptions {
+	sweep: SweepKind;
+	from: number;
+	to: number;
+	step: number;
+	rack?: number;
+	/** add the solved positions of the linkage points (and the spring length) to each sample */
+	points?: boolean;
+}
+
+/** One contract sample. Angles in degrees, lengths in mm; null where a quantity does not apply. */
+export interface Sample {
+	travel?: number;
+	roll?: number;
+	rack?: number;
+	camber: number;
+	toe: number;
+	caster: number;
+	kpi: number;
+	scrub_radius: number | null;
+	trail: number | null;
+	half_track_change: number;
+	wheelbase_change: number;
+	fvic: [number, number] | null;
+	fvsa: number | null;
+	rc_height: number | null;
+	svic: [number, number] | null;
+	anti_dive: number | null;
+	anti_squat: number | null;
+	camber_ground: number | null;
+	motion_ratio: number | null;
+	wheel_centre: [number, number, number];
+	contact_patch: [number, number, number];
+	/** only with options.points: solved point positions (mm, chassis axes) */
+	points?: Record<string, [number, number, number]>;
+	/** only with options.points: spring installed length at this pose (mm), null without spring points */
+	spring_length?: number | null;
+}
+
+/** Why a sweep stopped: the link that cannot be assembled and the sweep position (mm or degrees). */
+export interface SweepError {
+	link: string;
+	position: number;
+	sweep: SweepKind;
+	message: string;
+}
+
+/** A sweep's solved samples (ascending) and the error that stopped it, if any. */
+export interface SweepResult {
+	samples: Sample[];
+	error: SweepError | null;
+}
+
+/** Thrown for geometry the engine cannot model (the shared zod schema catches these first). */
+export class CornerGeometryError extends Error {
+	constructor(
+		readonly field: string,
+		message: string
+	) {
+		super(`${field}: ${message}`);
+	}
+}
+
+/** Thrown for a sweep request outside the contract (step ≤ 0, from > to, non-finite). */
+export class SweepOptionsError extends Error {}
+
+const SWEEP_CODE: Record<SweepKind, number> = { heave: F.SWEEP_HEAVE, roll: F.SWEEP_ROLL, steer: F.SWEEP_STEER };
+const SWEEP_VAR: Record<SweepKind, 'travel' | 'roll' | 'rack'> = { heave: 'travel', roll: 'roll', steer: 'rack' };
+
+/** A compiled corner with its own reusable buffers: for repeated sweeps of one corner. */
+export class CornerSolver {
+	readonly model: CornerModel;
+	readonly buffer = new SweepBuffer();
+
+	/** Compile `corner` (a validated corner-geometry/1 object); throws CornerGeometryError. */
+	constructor(corner: CornerInput) {
+		const m = compileCorner(corner);
+		if (isFault(m)) throw new CornerGeometryError(m.field, m.message);
+		this.model = m;
+	}
+
+	/** Solve a sweep into this solver's buffer (no samples built); returns the buffer. */
+	run(options: SweepOptions): SweepBuffer {
+		runSweep(this.model, specOf(options), this.buffer);
+		return this.buffer;
+	}
+
+	/** Solve a sweep and return contract samples plus the error, if any. */
+	sweep(options: SweepOptions): SweepResult {
+		const buf = this.run(options);
+		const samples: Sample[] = [];
+		for (let k = buf.lo; k <= buf.hi; k++) samples.push(sampleOf(this.model, buf, k, options));
+		const error = buf.failCode === 0 ? null : errorOf(buf, options.sweep);
+		return { samples, error };
+	}
+
+	/** Spring installed length at design (mm): spring.chassis to spring.body; null without spring points. */
+	springInstalledLength(): number | null {
+		const m = this.model;
+		if (m.springOn === SPRING_NONE) return null;
+		const b = m.points['spring.body'];
+		const c = m.springChassis;
+		return Math.hypot(b[0] - c[0], b[1] - c[1], b[2] - c[2]);
+	}
+}
+
+/** Solve one sweep of `corner` (validated corner-geometry/1); throws CornerGeometryError or SweepOptionsError. */
+export function solveSweep(corner: CornerInput, options: SweepOptions): SweepResult {
+	return new CornerSolver(corner).sweep(options);
+}
+
+/** Spring installed length at design of `corner` (mm), or null without spring points. */
+export function springInstalledLength(corner: CornerInput): number | null {
+	return new CornerSolver(corner).springInstalledLength();
+}
+
+/** The engine's sweep spec from API options; throws SweepOptionsError. */
+function specOf(o: SweepOptions): SweepSpec {
+	const rack = o.rack ?? 0;
+	if (!(o.sweep in SWEEP_CODE)) throw new SweepOptionsError(`sweep: unknown sweep '${String(o.sweep)}'`);
+	for (const [k, v] of [['from', o.from], ['to', o.to], ['step', o.step], ['rack', rack]] as const) {
+		if (typeof v !== 'number' || !Number.isFinite(v)) throw new SweepOptionsError(`${k}: must be a finite number`);
+	}
+	if (!(o.step > 0)) throw new SweepOptionsError('step: must be > 0');
+	if (!(o.from <= o.to)) throw new SweepOptionsError('from: must be <= to');
+	return { sweep: SWEEP_CODE[o.sweep], from: o.from, to: o.to, step: o.step, rack, points: !!o.points };
+}
+
+/** Column f of row k, or null. */
+function val(buf: SweepBuffer, k: number, f: number): number | null {
+	const i = k * F.N_FIELDS + f;
+	return buf.has[i] ? buf.values[i] : null;
+}
+
+/** Column f of row k in degrees, or null. */
+function deg(buf: SweepBuffer, k: number, f: number): number | null {
+	const v = val(buf, k, f);
+	return v === null ? null : v * DEG;
+}
+
+/** A pair of columns as [a, b], or null if either is absent. */
+function pair(buf: SweepBuffer, k: number, f: number): [number, number] | null {
+	const a = val(buf, k, f);
+	const b = val(buf, k, f + 1);
+	return a === null || b === null ? null : [a, b];
+}
+
+/** Three columns as a point. */
+function triple(buf: SweepBuffer, k: number, f: number): [number, number, number] {
+	const o = k * F.N_FIELDS + f;
+	return [buf.values[o], buf.values[o + 1], buf.values[o + 2]];
+}
+
+/** The contract sample of row k (key order as in the contract). */
+function sampleOf(m: CornerModel, buf: SweepBuffer, k: number, o: SweepOptions): Sample {
+	const s = {
+		[SWEEP_VAR[o.sweep]]: buf.positions[k],
+		camber: deg(buf, k, F.F_CAMBER)!,
+		toe: deg(buf, k, F.F_TOE)!,
+		caster: deg(buf, k, F.F_CASTER)!,
+		kpi: deg(buf, k, F.F_KPI)!,
+		scrub_radius: val(buf, k, F.F_SCRUB),
+		trail: val(buf, k, F.F_TRAIL),
+		half_track_change: val(buf, k, F.F_HALF_TRACK)!,
+		wheelbase_change: val(buf, k, F.F_WHEELBASE)!,
+		fvic: pair(buf, k, F.F_FVIC_Y),
+		fvsa: val(buf, k, F.F_FVSA),
+		rc_height: val(buf, k, F.F_RC),
+		svic: pair(buf, k, F.F_SVIC_X),
+		anti_dive: val(buf, k, F.F_ANTI_DIVE),
+		anti_squat: val(buf, k, F.F_ANTI_SQUAT),
+		camber_ground: deg(buf, k, F.F_CAMBER_GROUND),
+		motion_ratio: val(buf, k, F.F_MOTION_RATIO),
+		wheel_centre: triple(buf, k, F.F_WC_X),
+		contact_patch: triple(buf, k, F.F_CP_X)
+	} as Sample;
+	if (o.points) {
+		s.points = pointsOf(m, buf, k);
+		s.spring_length = val(buf, k, F.F_SPRING_LENGTH);
+	}
+	return s;
+}
+
+/** The named points of row k that this corner has. */
+function pointsOf(m: CornerModel, buf: SweepBuffer, k: number): Record<string, [number, number, number]> {
+	const out: Record<string, [number, number, number]> = {};
+	const o = k * POINT_NAMES.length * 3;
+	POINT_NAMES.forEach((name, i) => {
+		const strutOnly = name.startsWith('strut.');
+		const wishboneOnly = name.startsWith('upper.');
+		if (m.kind === KIND_STRUT ? wishboneOnly : strutOnly) return;
+		if (name.startsWith('spring.') && m.springOn === SPRING_NONE) return;
+		const p = buf.points;
+		out[name] = [p[o + 3 * i], p[o + 3 * i + 1], p[o + 3 * i + 2]];
+	});
+	return out;
+}
+
+/** The API error of a failed sweep. */
+function errorOf(buf: SweepBuffer, sweep: SweepKind): SweepError {
+	const link = FAIL_LINK[buf.failCode];
+	const unit = sweep === 'roll' ? '°' : ' mm';
+	const what = sweep === 'heave' ? 'travel' : SWEEP_VAR[sweep];
+	return {
+		link,
+		position: buf.failPosition,
+		sweep,
+		message: `${link} cannot be assembled at ${what} ${buf.failPosition}${unit}`
+	};
+}

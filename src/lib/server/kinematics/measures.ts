@@ -1,0 +1,252 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; lengths in mm, angles in radians
+// (converted to degrees only when samples are written out).
+// Every measured quantity of the contract table, computed from a solved pose into a flat row.
+
+import { PARALLEL_TOL_RAD, TINY } from './constants';
+import { KIND_STRUT, SPRING_NONE, contactPoint, type CornerModel } from './corner';
+import type { Pose } from './solve';
+import { vec3 } from './vec3';
+
+/** Column indices of one measures row; `has` flags say which columns apply (else null). */
+export const F_CAMBER = 0;
+export const F_TOE = 1;
+export const F_CASTER = 2;
+export const F_KPI = 3;
+export const F_SCRUB = 4;
+export const F_TRAIL = 5;
+export const F_HALF_TRACK = 6;
+export const F_WHEELBASE = 7;
+export const F_FVIC_Y = 8;
+export const F_FVIC_Z = 9;
+export const F_FVSA = 10;
+export const F_RC = 11;
+export const F_SVIC_X = 12;
+export const F_SVIC_Z = 13;
+export const F_ANTI_DIVE = 14;
+export const F_ANTI_SQUAT = 15;
+export const F_CAMBER_GROUND = 16;
+export const F_MOTION_RATIO = 17;
+export const F_WC_X = 18;
+export const F_CP_X = 21;
+export const F_SPRING_LENGTH = 24;
+/** Width of one measures row. */
+export const N_FIELDS = 25;
+
+/** Sweep kinds as numbers. */
+export const SWEEP_HEAVE = 0;
+export const SWEEP_ROLL = 1;
+export const SWEEP_STEER = 2;
+
+/** Where the pose was solved: sweep kind, roll (rad) and the unit ground normal in chassis axes. */
+export interface MeasureContext {
+	sweep: number;
+	roll: number;
+	n: Float64Array;
+}
+
+const C = vec3();
+const line = new Float64Array(6);
+const hit = new Float64Array(2);
+
+/** Write value v (finite) into row `o` of out and mark it present. */
+function put(out: Float64Array, has: Uint8Array, o: number, f: number, v: number): void {
+	if (Number.isFinite(v)) {
+		out[o + f] = v;
+		has[o + f] = 1;
+	} else {
+		out[o + f] = 0;
+		has[o + f] = 0;
+	}
+}
+
+/** Mark column f of row o as null. */
+function none(out: Float64Array, has: Uint8Array, o: number, f: number): void {
+	out[o + f] = 0;
+	has[o + f] = 0;
+}
+
+/**
+ * All measures of pose p (corner m, context ctx) into row `row` of `out`/`has` (N_FIELDS wide).
+ * Returns false when the contact point is undefined (the wheel lies flat on the ground).
+ */
+export function computeMeasures(
+	m: CornerModel,
+	p: Pose,
+	ctx: MeasureContext,
+	out: Float64Array,
+	has: Uint8Array,
+	row: number
+): boolean {
+	const o = row * N_FIELDS;
+	if (!contactPoint(C, p.W, p.a, ctx.n, m.tyreRadius)) return false;
+	const s = m.side;
+	const az = p.a[2] > 1 ? 1 : p.a[2] < -1 ? -1 : p.a[2];
+	const camber = -Math.asin(az);
+	put(out, has, o, F_CAMBER, camber);
+	put(out, has, o, F_TOE, Math.atan2(p.a[0], Math.abs(p.a[1])));
+	const ax = p.K[0] - p.L[0];
+	const ay = p.K[1] - p.L[1];
+	const azz = p.K[2] - p.L[2];
+	put(out, has, o, F_CASTER, Math.atan2(-ax, azz));
+	put(out, has, o, F_KPI, Math.atan2(-s * ay, azz));
+	groundPoint(p, ctx.n, ax, ay, azz, out, has, o, s);
+	put(out, has, o, F_HALF_TRACK, s * (C[1] - m.contact0[1]));
+	put(out, has, o, F_WHEELBASE, C[0] - m.contact0[0]);
+	instantCentres(m, p, ctx, out, has, o);
+	if (ctx.sweep === SWEEP_ROLL) put(out, has, o, F_CAMBER_GROUND, camber + s * ctx.roll);
+	else none(out, has, o, F_CAMBER_GROUND);
+	motionRatio(m, p, out, has, o);
+	for (let i = 0; i < 3; i++) {
+		out[o + F_WC_X + i] = p.W[i];
+		has[o + F_WC_X + i] = 1;
+		out[o + F_CP_X + i] = C[i];
+		has[o + F_CP_X + i] = 1;
+	}
+	if (m.springOn === SPRING_NONE) none(out, has, o, F_SPRING_LENGTH);
+	else put(out, has, o, F_SPRING_LENGTH, p.springLength);
+	return true;
+}
+
+/** Scrub radius and trail from G, where the steering axis (L + t·axis) meets the ground. */
+function groundPoint(
+	p: Pose,
+	n: Float64Array,
+	ax: number,
+	ay: number,
+	az: number,
+	out: Float64Array,
+	has: Uint8Array,
+	o: number,
+	s: number
+): void {
+	const den = n[0] * ax + n[1] * ay + n[2] * az;
+	if (Math.abs(den) < TINY) {
+		none(out, has, o, F_SCRUB);
+		none(out, has, o, F_TRAIL);
+		return;
+	}
+	const t = -(n[0] * p.L[0] + n[1] * p.L[1] + n[2] * p.L[2]) / den;
+	const gx = p.L[0] + t * ax;
+	const gy = p.L[1] + t * ay;
+	put(out, has, o, F_SCRUB, s * (C[1] - gy));
+	put(out, has, o, F_TRAIL, gx - C[0]);
+}
+
+/**
+ * Cut of the plane through an arm's pivot axis and its ball joint by the plane x = x0 (view 0,
+ * front; result a y + b z = c) or y = y0 (view 1, side; a x + b z = c); into line[k..k+2].
+ */
+function armLine(e: Float64Array, pivot: Float64Array, joint: Float64Array, view: number, at: number, k: number): void {
+	const rx = joint[0] - pivot[0];
+	const ry = joint[1] - pivot[1];
+	const rz = joint[2] - pivot[2];
+	const nx = e[1] * rz - e[2] * ry;
+	const ny = e[2] * rx - e[0] * rz;
+	const nz = e[0] * ry - e[1] * rx;
+	const nd = nx * pivot[0] + ny * pivot[1] + nz * pivot[2];
+	line[k] = view === 0 ? ny : nx;
+	line[k + 1] = nz;
+	line[k + 2] = view === 0 ? nd - nx * at : nd - ny * at;
+}
+
+/** Strut upper line: through the top mount's projection, perpendicular to the projected strut axis. */
+function strutLine(m: CornerModel, p: Pose, view: number, k: number): void {
+	const P = m.strutTop;
+	const da = view === 0 ? p.d[1] : p.d[0];
+	const pa = view === 0 ? P[1] : P[0];
+	line[k] = da;
+	line[k + 1] = p.d[2];
+	line[k + 2] = da * pa + p.d[2] * P[2];
+}
+
+/** Meet of the lines in `line`; false when either is degenerate or they are parallel within 1e-9 rad. */
+function meet(): boolean {
+	const a1 = line[0];
+	const b1 = line[1];
+	const a2 = line[3];
+	const b2 = line[4];
+	const n1 = Math.sqrt(a1 * a1 + b1 * b1);
+	const n2 = Math.sqrt(a2 * a2 + b2 * b2);
+	if (!(n1 > TINY) || !(n2 > TINY)) return false;
+	const det = a1 * b2 - a2 * b1;
+	if (Math.abs(det) / (n1 * n2) < Math.sin(PARALLEL_TOL_RAD)) return false;
+	hit[0] = (line[2] * b2 - line[5] * b1) / det;
+	hit[1] = (a1 * line[5] - a2 * line[2]) / det;
+	return true;
+}
+
+/** Fill the lines of both arms (or arm and strut) for one view at the wheel-centre plane. */
+function viewLines(m: CornerModel, p: Pose, view: number): void {
+	const at = view === 0 ? p.W[0] : p.W[1];
+	armLine(m.lower.e, m.lower.pivot, p.L, view, at, 0);
+	if (m.kind === KIND_STRUT) strutLine(m, p, view, 3);
+	else armLine(m.upper.e, m.upper.pivot, p.K, view, at, 3);
+}
+
+/** fvic, fvsa, rc_height, svic, anti-dive and anti-squat. */
+function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float64Array, has: Uint8Array, o: number): void {
+	viewLines(m, p, 0);
+	const fv = meet();
+	if (fv) {
+		put(out, has, o, F_FVIC_Y, hit[0]);
+		put(out, has, o, F_FVIC_Z, hit[1]);
+		put(out, has, o, F_FVSA, Math.hypot(C[1] - hit[0], C[2] - hit[1]));
+	} else {
+		none(out, has, o, F_FVIC_Y);
+		none(out, has, o, F_FVIC_Z);
+		none(out, has, o, F_FVSA);
+	}
+	if (ctx.sweep === SWEEP_HEAVE) rollCentre(fv, out, has, o);
+	else none(out, has, o, F_RC);
+	viewLines(m, p, 1);
+	const sv = meet();
+	if (sv) {
+		put(out, has, o, F_SVIC_X, hit[0]);
+		put(out, has, o, F_SVIC_Z, hit[1]);
+	} else {
+		none(out, has, o, F_SVIC_X);
+		none(out, has, o, F_SVIC_Z);
+	}
+	anti(m, p, sv, out, has, o);
+}
+
+/** Height where the line from C through fvic (or parallel to the arm lines) crosses y = 0. */
+function rollCentre(fv: boolean, out: Float64Array, has: Uint8Array, o: number): void {
+	let dy: number;
+	let dz: number;
+	if (fv) {
+		dy = hit[0] - C[1];
+		dz = hit[1] - C[2];
+	} else {
+		dy = -line[1];
+		dz = line[0];
+	}
+	if (Math.abs(dy) < TINY) return none(out, has, o, F_RC);
+	put(out, has, o, F_RC, C[2] + (dz * (0 - C[1])) / dy);
+}
+
+/** Anti-dive (front) / anti-squat (rear), percent (Milliken & Milliken, RCVD ch. 17, as in the contract). */
+function anti(m: CornerModel, p: Pose, sv: boolean, out: Float64Array, has: Uint8Array, o: number): void {
+	none(out, has, o, F_ANTI_DIVE);
+	none(out, has, o, F_ANTI_SQUAT);
+	const v = m.vehicle;
+	if (!v || !sv) return;
+	const k = 100 * v.fraction * (v.wheelbase / v.cgHeight);
+	const sx = hit[0];
+	const sz = hit[1];
+	if (v.front) {
+		if (C[0] === sx) return;
+		put(out, has, o, F_ANTI_DIVE, (k * (sz - C[2])) / (C[0] - sx));
+	} else {
+		if (sx === p.W[0]) return;
+		put(out, has, o, F_ANTI_SQUAT, (k * (sz - p.W[2])) / (sx - p.W[0]));
+	}
+}
+
+/** Motion ratio −d(spring length)/d(travel) from the velocity analysis (heave, rack held). */
+function motionRatio(m: CornerModel, p: Pose, out: Float64Array, has: Uint8Array, o: number): void {
+	if (m.springOn === SPRING_NONE || !p.velocityOk || Math.abs(p.dW[2]) < TINY) {
+		return none(out, has, o, F_MOTION_RATIO);
+	}
+	put(out, has, o, F_MOTION_RATIO, -p.dSpringLength / p.dW[2]);
+}

@@ -1,0 +1,387 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; lengths in mm, angles in radians.
+// Position solution of one corner as a closed-form chain in the lower-arm angle θ:
+// lower ball joint on its circle → second steering-axis point (upper ball joint on
+// circle ∩ sphere, or the strut top found on the strut axis) → upright turned about the
+// steering axis until the tie rod fits. A sweep's driving condition is then one equation
+// in θ, solved by Newton's method with the analytic derivative from a velocity analysis.
+
+import { ASSEMBLY_SLACK, DRIVER_SLOPE_MIN, NEWTON_MAX_ITER, NEWTON_TOL_MM, TINY } from './constants';
+import {
+	KIND_STRUT,
+	SPRING_LOWER,
+	SPRING_NONE,
+	SPRING_UPPER,
+	SPRING_UPRIGHT,
+	contactPoint,
+	type ArmCircle,
+	type CornerModel
+} from './corner';
+import { axisAngle, mat3, minimalRotation, mul, place, rotate } from './pose';
+import { cross, dot, len, vec3 } from './vec3';
+
+/** Result codes of a pose evaluation (0 = assembled). */
+export const OK = 0;
+export const FAIL_UPPER = 1;
+export const FAIL_TIE_ROD = 2;
+export const FAIL_STRUT = 3;
+export const FAIL_LOWER = 4;
+export const FAIL_CONTACT = 5;
+
+/** The link each failure code names in error messages. */
+export const FAIL_LINK = ['', 'upper arm', 'tie rod', 'strut', 'lower arm', 'wheel'];
+
+/** Branch values of an assembled pose: the continuation carries them from one position to the next. */
+export class Branch {
+	/** lower-arm angle from design, rad */
+	theta = 0;
+	/** upper-arm angle from design, rad (double wishbone) */
+	phi = 0;
+	/** rotation about the steering axis, rad */
+	psi = 0;
+	/** strut: distance along the strut axis from strut.lower to the point at the top mount, mm */
+	tau = 0;
+}
+
+/** A solved pose and its velocity per unit θ: scratch buffers, reused for every position. */
+export class Pose {
+	readonly branch = new Branch();
+	/** rack travel along +y, mm */
+	rack = 0;
+	readonly L = vec3();
+	/** second steering-axis point: upper.outer, or strut.top */
+	readonly K = vec3();
+	readonly R = mat3();
+	readonly T = vec3();
+	readonly W = vec3();
+	/** unit spin axis, outboard */
+	readonly a = vec3();
+	readonly S = vec3();
+	/** strut.lower and the unit strut axis (strut only) */
+	readonly SL = vec3();
+	readonly d = vec3();
+	readonly B = vec3();
+	springLength = 0;
+	/** velocities per unit θ (mm/rad, 1/rad for ω and da) */
+	readonly dL = vec3();
+	readonly omega = vec3();
+	readonly dW = vec3();
+	readonly da = vec3();
+	readonly dB = vec3();
+	dPhi = 0;
+	dSpringLength = 0;
+	/** false at a toggle position where the velocity analysis is singular */
+	velocityOk = false;
+}
+
+// Module-level scratch: the solver is synchronous, so one set serves every call.
+const tmpA = vec3();
+const tmpB = vec3();
+const tmpC = vec3();
+const tmpD = vec3();
+const vhat = vec3();
+const uhat = vec3();
+const rMin = mat3();
+const rPsi = mat3();
+const tMin = vec3();
+const solveOut = new Float64Array(1);
+
+/** out = the arm point at angle θ (rad) on circle `arm`. */
+function onCircle(out: Float64Array, arm: ArmCircle, theta: number): void {
+	const c = Math.cos(theta);
+	const s = Math.sin(theta);
+	out[0] = arm.c[0] + c * arm.r[0] + s * arm.s[0];
+	out[1] = arm.c[1] + c * arm.r[1] + s * arm.s[1];
+	out[2] = arm.c[2] + c * arm.r[2] + s * arm.s[2];
+}
+
+/** Wrap an angle difference (rad) into (-π, π]. */
+function wrap(x: number): number {
+	const t = x - 2 * Math.PI * Math.floor((x + Math.PI) / (2 * Math.PI));
+	return t;
+}
+
+/**
+ * Solve A cos x + B sin x = C for the root nearest `prev` (rad); writes solveOut[0].
+ * Returns false when no root exists (the link cannot reach).
+ */
+function trigRoot(A: number, B: number, C: number, prev: number): boolean {
+	const M = Math.sqrt(A * A + B * B);
+	if (!(M > TINY)) return false;
+	let c = C / M;
+	if (c > 1 || c < -1) {
+		if (Math.abs(c) > 1 + ASSEMBLY_SLACK) return false;
+		c = c > 0 ? 1 : -1;
+	}
+	const base = Math.atan2(B, A);
+	const off = Math.acos(c);
+	const r1 = prev + wrap(base + off - prev);
+	const r2 = prev + wrap(base - off - prev);
+	solveOut[0] = Math.abs(r1 - prev) <= Math.abs(r2 - prev) ? r1 : r2;
+	return true;
+}
+
+/** Upper ball joint on its circle at distance kingpinLength from L (double wishbone). */
+function placeUpper(m: CornerModel, ref: Branch, p: Pose): number {
+	const u = m.upper;
+	const Dx = u.c[0] - p.L[0];
+	const Dy = u.c[1] - p.L[1];
+	const Dz = u.c[2] - p.L[2];
+	const rr = dot(u.r, u.r);
+	const A = 2 * (Dx * u.r[0] + Dy * u.r[1] + Dz * u.r[2]);
+	const B = 2 * (Dx * u.s[0] + Dy * u.s[1] + Dz * u.s[2]);
+	const C = m.kingpinLength * m.kingpinLength - (Dx * Dx + Dy * Dy + Dz * Dz) - rr;
+	if (!trigRoot(A, B, C, ref.phi)) return FAIL_UPPER;
+	p.branch.phi = solveOut[0];
+	onCircle(p.K, u, p.branch.phi);
+	return OK;
+}
+
+/** Strut: the body point of the strut axis that sits at the top mount; writes uhat. */
+function placeStrut(m: CornerModel, ref: Branch, p: Pose): number {
+	const P = m.strutTop;
+	const rx = P[0] - p.L[0];
+	const ry = P[1] - p.L[1];
+	const rz = P[2] - p.L[2];
+	const rho2 = rx * rx + ry * ry + rz * rz;
+	const g = m.bodySL;
+	const gd = dot(g, m.strutAxis0);
+	const disc = gd * gd - dot(g, g) + rho2;
+	if (disc < 0) return FAIL_STRUT;
+	const sq = Math.sqrt(disc);
+	const t1 = -gd + sq;
+	const t2 = -gd - sq;
+	const tau = Math.abs(t1 - ref.tau) <= Math.abs(t2 - ref.tau) ? t1 : t2;
+	p.branch.tau = tau;
+	tmpA[0] = g[0] + tau * m.strutAxis0[0];
+	tmpA[1] = g[1] + tau * m.strutAxis0[1];
+	tmpA[2] = g[2] + tau * m.strutAxis0[2];
+	const l = len(tmpA);
+	if (!(l > TINY)) return FAIL_STRUT;
+	uhat[0] = tmpA[0] / l;
+	uhat[1] = tmpA[1] / l;
+	uhat[2] = tmpA[2] / l;
+	p.K[0] = P[0];
+	p.K[1] = P[1];
+	p.K[2] = P[2];
+	return OK;
+}
+
+/** Turn the upright about the steering axis until the tie rod fits; writes p.R. */
+function closeTieRod(m: CornerModel, ref: Branch, p: Pose): number {
+	rotate(tMin, rMin, m.bodyT);
+	const ac = dot(tMin, vhat);
+	const rx = tMin[0] - ac * vhat[0];
+	const ry = tMin[1] - ac * vhat[1];
+	const rz = tMin[2] - ac * vhat[2];
+	const sx = vhat[1] * rz - vhat[2] * ry;
+	const sy = vhat[2] * rx - vhat[0] * rz;
+	const sz = vhat[0] * ry - vhat[1] * rx;
+	const Dx = p.L[0] + ac * vhat[0] - p.S[0];
+	const Dy = p.L[1] + ac * vhat[1] - p.S[1];
+	const Dz = p.L[2] + ac * vhat[2] - p.S[2];
+	const A = 2 * (Dx * rx + Dy * ry + Dz * rz);
+	const B = 2 * (Dx * sx + Dy * sy + Dz * sz);
+	const l = m.tieRodLength;
+	const C = l * l - (Dx * Dx + Dy * Dy + Dz * Dz) - (rx * rx + ry * ry + rz * rz);
+	if (!trigRoot(A, B, C, ref.psi)) return FAIL_TIE_ROD;
+	p.branch.psi = solveOut[0];
+	axisAngle(rPsi, vhat, p.branch.psi);
+	mul(p.R, rPsi, rMin);
+	return OK;
+}
+
+/**
+ * Assemble the corner at lower-arm angle `theta` (rad) and rack travel `rack` (mm), choosing
+ * each branch nearest to `ref`; fills `p` (positions and velocities). Returns OK or a FAIL code.
+ */
+export function evalPose(m: CornerModel, ref: Branch, theta: number, rack: number, p: Pose): number {
+	p.branch.theta = theta;
+	p.rack = rack;
+	onCircle(p.L, m.lower, theta);
+	p.S[0] = m.steerInner0[0];
+	p.S[1] = m.steerInner0[1] + rack;
+	p.S[2] = m.steerInner0[2];
+	const strut = m.kind === KIND_STRUT;
+	const code = strut ? placeStrut(m, ref, p) : placeUpper(m, ref, p);
+	if (code !== OK) return code;
+	if (!strut) {
+		const kl = m.kingpinLength;
+		uhat[0] = m.bodyU[0] / kl;
+		uhat[1] = m.bodyU[1] / kl;
+		uhat[2] = m.bodyU[2] / kl;
+	}
+	vhat[0] = p.K[0] - p.L[0];
+	vhat[1] = p.K[1] - p.L[1];
+	vhat[2] = p.K[2] - p.L[2];
+	const vl = len(vhat);
+	if (!(vl > TINY)) return strut ? FAIL_STRUT : FAIL_UPPER;
+	vhat[0] /= vl;
+	vhat[1] /= vl;
+	vhat[2] /= vl;
+	if (!minimalRotation(rMin, uhat, vhat)) return strut ? FAIL_STRUT : FAIL_UPPER;
+	const tie = closeTieRod(m, ref, p);
+	if (tie !== OK) return tie;
+	placeBodies(m, p);
+	velocity(m, p);
+	return OK;
+}
+
+/** Upright and spring points from the solved rotation. */
+function placeBodies(m: CornerModel, p: Pose): void {
+	place(p.T, p.R, m.bodyT, p.L);
+	place(p.W, p.R, m.bodyW, p.L);
+	rotate(p.a, p.R, m.spinAxis0);
+	if (m.kind === KIND_STRUT) {
+		place(p.SL, p.R, m.bodySL, p.L);
+		rotate(p.d, p.R, m.strutAxis0);
+	}
+	if (m.springOn === SPRING_NONE) return;
+	if (m.springOn === SPRING_UPRIGHT) place(p.B, p.R, m.bodySpring, p.L);
+	else onCircle(p.B, m.springBody, m.springOn === SPRING_LOWER ? p.branch.theta : p.branch.phi);
+	const bx = p.B[0] - m.springChassis[0];
+	const by = p.B[1] - m.springChassis[1];
+	const bz = p.B[2] - m.springChassis[2];
+	p.springLength = Math.sqrt(bx * bx + by * by + bz * bz);
+}
+
+/**
+ * Velocity analysis per unit θ: dL = e × (L − c); the upright's angular velocity ω is the part
+ * fixed by the second steering-axis point plus a turn λ about the axis set by the tie rod.
+ */
+function velocity(m: CornerModel, p: Pose): void {
+	p.velocityOk = false;
+	const lo = m.lower;
+	cross(p.dL, lo.e, sub3(tmpA, p.L, lo.c));
+	const w = tmpB; // velocity of the steering-axis point K relative to L
+	if (m.kind === KIND_STRUT) {
+		// the upright point at the top mount slides along the strut axis: σ d − dL ⊥ (K − L)
+		sub3(tmpC, p.K, p.L);
+		const dv = dot(p.d, tmpC);
+		if (Math.abs(dv) < TINY) return;
+		const sigma = dot(p.dL, tmpC) / dv;
+		for (let i = 0; i < 3; i++) w[i] = sigma * p.d[i] - p.dL[i];
+	} else {
+		const up = m.upper;
+		cross(tmpC, up.e, sub3(tmpA, p.K, up.c)); // dU per unit φ
+		sub3(tmpD, p.K, p.L);
+		const den = dot(tmpD, tmpC);
+		if (Math.abs(den) < TINY) return;
+		p.dPhi = dot(tmpD, p.dL) / den;
+		for (let i = 0; i < 3; i++) w[i] = p.dPhi * tmpC[i] - p.dL[i];
+	}
+	if (!turnAboutAxis(p, w)) return;
+	cross(tmpA, p.omega, sub3(tmpC, p.W, p.L));
+	for (let i = 0; i < 3; i++) p.dW[i] = p.dL[i] + tmpA[i];
+	cross(p.da, p.omega, p.a);
+	springVelocity(m, p);
+	p.velocityOk = true;
+}
+
+/** ω = (v × w)/|v|² + λ v̂, λ from the tie rod (T − S)·dT = 0; false at a toggle. */
+function turnAboutAxis(p: Pose, w: Float64Array): boolean {
+	sub3(tmpC, p.K, p.L);
+	const vv = dot(tmpC, tmpC);
+	cross(p.omega, tmpC, w);
+	for (let i = 0; i < 3; i++) p.omega[i] /= vv;
+	const TL = sub3(tmpD, p.T, p.L);
+	cross(tmpA, p.omega, TL);
+	for (let i = 0; i < 3; i++) tmpA[i] += p.dL[i];
+	const ts0 = p.T[0] - p.S[0];
+	const ts1 = p.T[1] - p.S[1];
+	const ts2 = p.T[2] - p.S[2];
+	const num = ts0 * tmpA[0] + ts1 * tmpA[1] + ts2 * tmpA[2];
+	cross(tmpA, vhat, TL);
+	const den = ts0 * tmpA[0] + ts1 * tmpA[1] + ts2 * tmpA[2];
+	if (Math.abs(den) < TINY) return false;
+	const lambda = -num / den;
+	for (let i = 0; i < 3; i++) p.omega[i] += lambda * vhat[i];
+	return true;
+}
+
+/** Rate of change of the spring length per unit θ (mm/rad). */
+function springVelocity(m: CornerModel, p: Pose): void {
+	if (m.springOn === SPRING_NONE) return;
+	if (m.springOn === SPRING_UPRIGHT) {
+		cross(tmpA, p.omega, sub3(tmpC, p.B, p.L));
+		for (let i = 0; i < 3; i++) p.dB[i] = p.dL[i] + tmpA[i];
+	} else {
+		const arm = m.springOn === SPRING_LOWER ? m.lower : m.upper;
+		const rate = m.springOn === SPRING_UPPER ? p.dPhi : 1;
+		cross(p.dB, arm.e, sub3(tmpC, p.B, arm.c));
+		for (let i = 0; i < 3; i++) p.dB[i] *= rate;
+	}
+	sub3(tmpC, p.B, m.springChassis);
+	p.dSpringLength = p.springLength > TINY ? dot(tmpC, p.dB) / p.springLength : 0;
+}
+
+/** out = a − b (local copy to keep this file's hot path self-contained). */
+function sub3(out: Float64Array, a: Float64Array, b: Float64Array): Float64Array {
+	out[0] = a[0] - b[0];
+	out[1] = a[1] - b[1];
+	out[2] = a[2] - b[2];
+	return out;
+}
+
+/** What a sweep holds fixed: one scalar equation f(θ) = 0 (mm). */
+export interface Driver {
+	/** 0: wheel-centre z = target; 1: contact point on the ground of normal n */
+	mode: number;
+	/** target wheel-centre z, mm (mode 0) */
+	targetZ: number;
+	/** unit ground normal in chassis axes (mode 1) */
+	n: Float64Array;
+}
+
+/** f(θ) and f'(θ) of the driver at pose p; writes residual[0], residual[1]. */
+function driverResidual(m: CornerModel, d: Driver, p: Pose, out: Float64Array): boolean {
+	if (d.mode === 0) {
+		out[0] = p.W[2] - d.targetZ;
+		out[1] = p.dW[2];
+		return true;
+	}
+	const n = d.n;
+	const na = dot(n, p.a);
+	const q = 1 - na * na;
+	if (!(q > TINY)) return false;
+	const sq = Math.sqrt(q);
+	out[0] = dot(n, p.W) - m.tyreRadius * sq;
+	out[1] = dot(n, p.dW) + (m.tyreRadius * na * dot(n, p.da)) / sq;
+	return true;
+}
+
+const residual = new Float64Array(2);
+
+/**
+ * Newton on θ from `guess` (rad) until the driver holds, branches nearest `ref`; the solved
+ * pose is left in `p`. Returns OK or the FAIL code of the link that stopped it.
+ */
+export function solvePosition(
+	m: CornerModel,
+	ref: Branch,
+	d: Driver,
+	rack: number,
+	guess: number,
+	p: Pose
+): number {
+	let theta = guess;
+	let good = ref.theta;
+	let lastFail = FAIL_LOWER;
+	for (let iter = 0; iter < NEWTON_MAX_ITER; iter++) {
+		const code = evalPose(m, ref, theta, rack, p);
+		if (code !== OK || !p.velocityOk || !driverResidual(m, d, p, residual)) {
+			lastFail = code !== OK ? code : FAIL_LOWER;
+			theta = 0.5 * (theta + good); // back off toward the last assembled angle
+			continue;
+		}
+		if (Math.abs(residual[0]) < NEWTON_TOL_MM) return OK;
+		if (Math.abs(residual[1]) < DRIVER_SLOPE_MIN) return lastFail;
+		good = theta;
+		theta -= residual[0] / residual[1];
+	}
+	return lastFail;
+}
+
+/** Contact point of pose p against the ground of unit normal n (mm); false when the wheel lies flat. */
+export function poseContact(m: CornerModel, p: Pose, n: Float64Array, out: Float64Array): boolean {
+	return contactPoint(out, p.W, p.a, n, m.tyreRadius);
+}

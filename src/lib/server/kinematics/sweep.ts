@@ -1,0 +1,252 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; lengths in mm, angles in radians inside
+// (roll positions are kept in degrees, as the user gives them, and converted here).
+// Sweeps: the step grid, and continuation outward from design in both directions, so the
+// solution follows one assembly branch; each solved position is written into flat buffers.
+
+import { GRID_TOL, MAX_SAMPLES, MAX_STEP_MM, MAX_STEP_ROLL_RAD, RAD } from './constants';
+import { KIND_STRUT, SPRING_NONE, type CornerModel } from './corner';
+import { computeMeasures, N_FIELDS, SWEEP_HEAVE, SWEEP_ROLL, SWEEP_STEER, type MeasureContext } from './measures';
+import { place } from './pose';
+import { Branch, FAIL_CONTACT, OK, Pose, solvePosition, type Driver } from './solve';
+import { vec3 } from './vec3';
+
+/** Names of the points a sample may carry, in this order (3 numbers each in the points buffer). */
+export const POINT_NAMES = [
+	'lower.front',
+	'lower.rear',
+	'lower.outer',
+	'upper.front',
+	'upper.rear',
+	'upper.outer',
+	'strut.top',
+	'strut.lower',
+	'steer.inner',
+	'steer.outer',
+	'wheel.centre',
+	'wheel.axis_inner',
+	'spring.chassis',
+	'spring.body'
+] as const;
+const N_POINTS = POINT_NAMES.length;
+
+/** A sweep request: kind (SWEEP_*), grid (mm or degrees), rack held (mm; heave and roll). */
+export interface SweepSpec {
+	sweep: number;
+	from: number;
+	to: number;
+	step: number;
+	rack: number;
+	points: boolean;
+}
+
+/** Solved rows of one sweep: rows lo..hi (inclusive) are valid; `failCode` ≠ OK names the link. */
+export class SweepBuffer {
+	positions = new Float64Array(0);
+	values = new Float64Array(0);
+	has = new Uint8Array(0);
+	points = new Float64Array(0);
+	count = 0;
+	lo = 0;
+	hi = -1;
+	failCode = OK;
+	failPosition = 0;
+
+	/** Make room for n rows (grows only, so a reused buffer allocates nothing). */
+	reserve(n: number, points: boolean): void {
+		if (this.positions.length < n) {
+			this.positions = new Float64Array(n);
+			this.values = new Float64Array(n * N_FIELDS);
+			this.has = new Uint8Array(n * N_FIELDS);
+		}
+		if (points && this.points.length < n * N_POINTS * 3) this.points = new Float64Array(n * N_POINTS * 3);
+	}
+}
+
+/** Number of grid positions from..to by step, `to` included when within GRID_TOL of a step. */
+export function gridCount(from: number, to: number, step: number): number {
+	return Math.floor((to - from) / step + GRID_TOL) + 1;
+}
+
+/** Grid position k (rounded to 1e-12 so 0.1-type steps print cleanly). */
+function gridValue(from: number, step: number, k: number): number {
+	return Math.round((from + k * step) * 1e12) / 1e12;
+}
+
+/** The continuation state carried from one position to the next. */
+class Walker {
+	readonly ref = new Branch();
+	readonly pose = new Pose();
+	readonly driver: Driver = { mode: 0, targetZ: 0, n: vec3(0, 0, 1) };
+	readonly ctx: MeasureContext = { sweep: 0, roll: 0, n: vec3(0, 0, 1) };
+	readonly start = new Branch();
+	prevP = 0;
+	prevTheta = 0;
+	prev2P = 0;
+	prev2Theta = 0;
+	nHist = 0;
+}
+
+const walker = new Walker();
+const DESIGN = new Branch();
+
+/** Copy branch b into a. */
+function setBranch(a: Branch, b: Branch): void {
+	a.theta = b.theta;
+	a.phi = b.phi;
+	a.psi = b.psi;
+	a.tau = b.tau;
+}
+
+/** Set the driver and context for sweep kind `sweep` at position `param` (mm or degrees); returns the rack (mm). */
+function drive(m: CornerModel, w: Walker, sweep: number, param: number, rack: number): number {
+	w.ctx.sweep = sweep;
+	const n = w.ctx.n;
+	if (sweep === SWEEP_ROLL) {
+		const r = param * RAD;
+		w.ctx.roll = r;
+		n[0] = 0;
+		n[1] = -Math.sin(r); // positive roll puts the left side down: the ground rises on the left
+		n[2] = Math.cos(r);
+		w.driver.mode = 1;
+		w.driver.n = n;
+		return rack;
+	}
+	w.ctx.roll = 0;
+	n[0] = 0;
+	n[1] = 0;
+	n[2] = 1;
+	w.driver.mode = 0;
+	w.driver.targetZ = m.wheelCentreZ0 + (sweep === SWEEP_HEAVE ? param : 0);
+	return sweep === SWEEP_STEER ? param : rack;
+}
+
+/** Solve one position from the walker's state; on success the state moves there. */
+function step(m: CornerModel, w: Walker, sweep: number, param: number, rack: number): number {
+	const r = drive(m, w, sweep, param, rack);
+	let guess = w.ref.theta;
+	if (w.nHist >= 2 && w.prevP !== w.prev2P) {
+		guess = w.prevTheta + ((w.prevTheta - w.prev2Theta) * (param - w.prevP)) / (w.prevP - w.prev2P);
+	}
+	const code = solvePosition(m, w.ref, w.driver, r, guess, w.pose);
+	if (code !== OK) return code;
+	setBranch(w.ref, w.pose.branch);
+	w.prev2P = w.prevP;
+	w.prev2Theta = w.prevTheta;
+	w.prevP = param;
+	w.prevTheta = w.pose.branch.theta;
+	w.nHist++;
+	return OK;
+}
+
+/** Largest continuation step for a sweep kind (grid units: mm, or degrees for roll). */
+function maxStep(sweep: number): number {
+	return sweep === SWEEP_ROLL ? MAX_STEP_ROLL_RAD / RAD : MAX_STEP_MM;
+}
+
+/** Move from the walker's position `from` to `to` in steps no longer than maxStep; OK or a FAIL code. */
+function travelTo(m: CornerModel, w: Walker, sweep: number, from: number, to: number, rack: number): number {
+	const h = maxStep(sweep);
+	const n = Math.ceil(Math.abs(to - from) / h - 1e-9);
+	for (let i = 1; i < n; i++) {
+		const code = step(m, w, sweep, from + ((to - from) * i) / n, rack);
+		if (code !== OK) return code;
+	}
+	return step(m, w, sweep, to, rack);
+}
+
+/** Reset the walker to the start state; `exact` when that state already satisfies the driver at 0. */
+function restart(w: Walker, exact: boolean): void {
+	setBranch(w.ref, w.start);
+	w.nHist = exact ? 1 : 0;
+	w.prevP = 0;
+	w.prevTheta = w.start.theta;
+}
+
+/** Bring the rack from 0 to `rack` (mm) at design wheel-centre height; OK or a FAIL code. */
+function approachRack(m: CornerModel, w: Walker, rack: number): number {
+	setBranch(w.ref, DESIGN);
+	w.nHist = 1;
+	w.prevP = 0;
+	w.prevTheta = 0;
+	const code = rack === 0 ? OK : travelTo(m, w, SWEEP_STEER, 0, rack, 0);
+	setBranch(w.start, w.ref);
+	return code;
+}
+
+/** Write the solved pose's points into row `row` of buf.points. */
+function writePoints(m: CornerModel, p: Pose, buf: SweepBuffer, row: number): void {
+	const o = row * N_POINTS * 3;
+	const pts = buf.points;
+	const set = (k: number, v: ArrayLike<number>): void => {
+		pts[o + 3 * k] = v[0];
+		pts[o + 3 * k + 1] = v[1];
+		pts[o + 3 * k + 2] = v[2];
+	};
+	const given = (k: number): void => set(k, m.points[POINT_NAMES[k]] ?? [0, 0, 0]);
+	for (const k of [0, 1, 3, 4, 12]) given(k);
+	set(2, p.L);
+	if (m.kind === KIND_STRUT) {
+		set(6, p.K);
+		set(7, p.SL);
+	} else set(5, p.K);
+	set(8, p.S);
+	set(9, p.T);
+	set(10, p.W);
+	const l = m.spinAxisLength;
+	set(11, [p.W[0] - l * p.a[0], p.W[1] - l * p.a[1], p.W[2] - l * p.a[2]]);
+	if (m.springOn !== SPRING_NONE) set(13, p.B);
+}
+
+/** Solve and record grid row k; false (with the failure recorded) when it cannot be assembled. */
+function solveRow(m: CornerModel, spec: SweepSpec, buf: SweepBuffer, k: number, last: number): boolean {
+	const w = walker;
+	const target = buf.positions[k];
+	let code = travelTo(m, w, spec.sweep, last, target, spec.rack);
+	if (code === OK && !computeMeasures(m, w.pose, w.ctx, buf.values, buf.has, k)) code = FAIL_CONTACT;
+	if (code !== OK) {
+		if (buf.failCode === OK || Math.abs(target) < Math.abs(buf.failPosition)) {
+			buf.failCode = code;
+			buf.failPosition = target;
+		}
+		return false;
+	}
+	if (spec.points) writePoints(m, w.pose, buf, k);
+	return true;
+}
+
+/** Run sweep `spec` on model m into buf (reused between calls; allocates nothing once sized). */
+export function runSweep(m: CornerModel, spec: SweepSpec, buf: SweepBuffer): void {
+	const n = Math.min(gridCount(spec.from, spec.to, spec.step), MAX_SAMPLES);
+	buf.reserve(n, spec.points);
+	buf.count = n;
+	buf.failCode = OK;
+	buf.failPosition = 0;
+	for (let k = 0; k < n; k++) buf.positions[k] = gridValue(spec.from, spec.step, k);
+	if (n > 0 && Math.abs(buf.positions[n - 1] - spec.to) <= GRID_TOL * spec.step) buf.positions[n - 1] = spec.to;
+	const rack = spec.sweep === SWEEP_STEER ? 0 : spec.rack;
+	const code = approachRack(m, walker, rack);
+	if (code !== OK) {
+		buf.failCode = code;
+		buf.failPosition = n > 0 ? buf.positions[0] : 0;
+		buf.lo = 0;
+		buf.hi = -1;
+		return;
+	}
+	let first = 0; // first grid index at or above design (0)
+	while (first < n && buf.positions[first] < 0) first++;
+	const exact = spec.sweep !== SWEEP_ROLL;
+	restart(walker, exact);
+	let hi = first - 1;
+	for (let k = first, last = 0; k < n && solveRow(m, spec, buf, k, last); k++) {
+		hi = k;
+		last = buf.positions[k];
+	}
+	restart(walker, exact);
+	let lo = first;
+	for (let k = first - 1, last = 0; k >= 0 && solveRow(m, spec, buf, k, last); k--) {
+		lo = k;
+		last = buf.positions[k];
+	}
+	buf.lo = lo;
+	buf.hi = hi;
+}
