@@ -2,6 +2,7 @@
 import { SvelteKitAuth, CredentialsSignin } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import type { RequestEvent } from '@sveltejs/kit';
+import type { SvelteKitAuthConfig } from '@auth/sveltekit';
 import { verifyCredentials } from '$lib/server/auth/sign-in';
 import { serverEnv } from '$lib/server/env';
 
@@ -10,13 +11,13 @@ class RateLimited extends CredentialsSignin {
 }
 
 /** Auth.js settings for one request (the client address feeds the sign-in rate limit). */
-function config(event: RequestEvent) {
+function config(event: RequestEvent): SvelteKitAuthConfig {
 	const env = serverEnv();
 	return {
 		secret: env.AUTH_SECRET,
 		trustHost: env.AUTH_TRUST_HOST,
 		basePath: '/auth',
-		session: { strategy: 'jwt' as const, maxAge: 30 * 24 * 3600 },
+		session: { strategy: 'jwt', maxAge: 30 * 24 * 3600 },
 		pages: { signIn: '/signin', error: '/signin' },
 		providers: [
 			Credentials({
@@ -29,11 +30,11 @@ function config(event: RequestEvent) {
 			})
 		],
 		callbacks: {
-			jwt({ token, user }: { token: Record<string, unknown>; user?: { id?: string } }) {
+			jwt({ token, user }) {
 				if (user?.id) token.sub = user.id;
 				return token;
 			},
-			session({ session, token }: { session: { user?: { id?: string } }; token: { sub?: string } }) {
+			session({ session, token }) {
 				if (session.user && token.sub) session.user.id = token.sub;
 				return session;
 			}

@@ -1,0 +1,11 @@
+#!/usr/bin/env node
+// `npm run dev`: the same set-up as `npm start`, then Vite's dev server with hot reload on http://127.0.0.1:5173.
+import { spawn } from 'node:child_process';
+import { root } from './db.mjs';
+import { appEnv, ensurePackages, prepareDatabase } from './setup.mjs';
+
+ensurePackages();
+const databaseUrl = process.env.DATABASE_URL ?? prepareDatabase();
+const env = { ...process.env, ...appEnv({ databaseUrl, port: 5173 }) };
+const vite = spawn('npx', ['vite', 'dev', ...process.argv.slice(2)], { cwd: root, env, stdio: 'inherit' });
+vite.on('exit', (code) => process.exit(code ?? 0));

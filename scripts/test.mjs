@@ -1,0 +1,59 @@
+#!/usr/bin/env node
+// `npm test`: the same set-up as `npm start` against a fresh test database, then every test:
+// Vitest (unit, then integration against the real database and the built app), then Playwright in Chromium.
+import { spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import path from 'node:path';
+import { databaseUrl, root, testDatabase } from './db.mjs';
+import { ensureBuild, ensureChromium, ensurePackages, prepareDatabase, say, waitForHttp } from './setup.mjs';
+import { startTestServer } from './test-server.mjs';
+
+ensurePackages();
+ensureChromium();
+prepareDatabase({ test: true });
+ensureBuild();
+
+const port = Number(process.env.LW_TEST_PORT ?? 3100);
+const baseUrl = `http://127.0.0.1:${port}`;
+const server = startTestServer(port);
+process.on('exit', () => server.kill('SIGTERM'));
+await waitForHttp(`${baseUrl}/signin`);
+
+const results = path.join(root, 'test-results');
+fs.mkdirSync(results, { recursive: true });
+const env = { ...process.env, LW_TEST_BASE_URL: baseUrl, TEST_DATABASE_URL: databaseUrl(testDatabase) };
+
+/** Runs one test runner with inherited output; returns its exit status. */
+function runner(command, args) {
+	return spawnSync(command, args, { cwd: root, env, stdio: 'inherit' }).status ?? 1;
+}
+
+say('vitest: unit and integration');
+const vitest = runner('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${results}/vitest.json`]);
+say('playwright: browser journeys in Chromium');
+const playwright = runner('npx', ['playwright', 'test']);
+
+/** Counts passed and failed tests from the runners' JSON reports. */
+function counts() {
+	let passed = 0;
+	let failed = 0;
+	try {
+		const v = JSON.parse(fs.readFileSync(`${results}/vitest.json`, 'utf8'));
+		passed += v.numPassedTests;
+		failed += v.numFailedTests;
+	} catch {
+		failed += vitest === 0 ? 0 : 1;
+	}
+	try {
+		const p = JSON.parse(fs.readFileSync(`${results}/playwright.json`, 'utf8'));
+		passed += p.stats.expected + (p.stats.flaky ?? 0);
+		failed += p.stats.unexpected;
+	} catch {
+		failed += playwright === 0 ? 0 : 1;
+	}
+	return { passed, failed };
+}
+
+const { passed, failed } = counts();
+console.log(`\nsummary: ${passed} passed, ${failed} failed`);
+process.exit(vitest === 0 && playwright === 0 ? 0 : 1);

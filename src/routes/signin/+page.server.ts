@@ -1,0 +1,33 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { signIn } from '../../auth';
+import { signInInput } from '$lib/schemas/auth';
+import { parseForm } from '$lib/server/forms';
+import type { Actions, PageServerLoad } from './$types';
+
+const MESSAGES: Record<string, string> = {
+	credentials: 'Wrong e-mail or password.',
+	rate_limited: 'Too many failed sign-in attempts. Wait 15 minutes and try again.'
+};
+
+/** Only a path on this site is a place to return to after sign-in. */
+function safeReturn(target: string | null) {
+	return target && target.startsWith('/') && !target.startsWith('//') ? target : '/';
+}
+
+export const load: PageServerLoad = ({ locals, url }) => {
+	const redirectTo = safeReturn(url.searchParams.get('redirectTo'));
+	if (locals.user) redirect(303, redirectTo);
+	const error = url.searchParams.get('error');
+	const code = url.searchParams.get('code') ?? 'credentials';
+	return { redirectTo, message: error ? (MESSAGES[code] ?? MESSAGES.credentials) : null };
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		const form = await event.request.clone().formData();
+		const parsed = parseForm(form, signInInput);
+		if (!parsed.ok) return fail(400, { errors: parsed.errors, values: parsed.values });
+		// Auth.js checks the password and sets the session cookie, then redirects.
+		await signIn(event);
+	}
+};
