@@ -1,0 +1,142 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; z = 0 ground at design ride height.
+// The solve command: reads one corner-geometry/1 file, prints corner-solve/1 JSON on stdout.
+// Exit 0 solved; 1 bad input (one line on stderr naming the field); 2 cannot assemble
+// (one line on stderr naming the link and position; stdout still carries the solved part).
+
+import { readFileSync } from 'node:fs';
+import { parseCornerGeometry, SWEEP_DEFAULTS } from '../src/lib/schemas/geometry';
+import { CornerGeometryError, solveSweep, type SweepKind, type SweepResult } from '../src/lib/server/kinematics/index';
+
+const HELP = `Usage: npm run -s solve -- FILE [--sweep heave|roll|steer] [--from A --to B --step S] [--rack R] [--points]
+
+Solves one suspension corner (a corner-geometry/1 JSON file) through a sweep and prints
+corner-solve/1 JSON on stdout: one sample per position with camber, toe, caster, kpi,
+scrub_radius, trail, half_track_change, wheelbase_change, fvic, fvsa, rc_height, svic,
+anti_dive, anti_squat, camber_ground, motion_ratio, wheel_centre and contact_patch.
+Axes are ISO 8855 (x forward, y left, z up), z = 0 the ground at design ride height;
+lengths in mm, angles in degrees. A quantity that does not apply is null.
+
+Sweeps (an option left out takes its default):
+  --sweep heave   wheel-centre travel in mm, + = bump          default --from -50 --to 50 --step 5
+  --sweep roll    body roll in degrees, + = left side down     default --from -3 --to 3 --step 0.5
+  --sweep steer   rack travel in mm, + = rack to the left       default --from -40 --to 40 --step 5
+  --rack R        hold the rack at R mm during a heave or roll sweep (default 0)
+  --points        also give each sample the solved point positions and spring length
+                  (an addition to corner-solve/1; leave it out for contract output)
+--step must be > 0 and --from <= --to; --to is included when it falls on the step grid.
+
+Exit status, for batch studies and CI jobs:
+  0  solved over the whole range
+  1  bad input: unreadable file, bad JSON, or a field that fails validation
+     (one line on stderr naming the field, e.g. "points.upper.outer: missing")
+  2  the corner cannot be assembled at some position: one line on stderr naming the link
+     and the position; stdout still carries the solved part with an "error" object
+
+Examples:
+  npm run -s solve -- fixtures/club-fwd-front-left.json
+  npm run -s solve -- my-corner.json --sweep roll --from -2 --to 2 --step 0.25
+  npm run -s solve -- my-corner.json --from -80 --to 80 --step 1 > heave.json || echo "exit $?"
+`;
+
+/** Print one line on stderr and exit with `code`. */
+function fail(code: number, line: string): never {
+	process.stderr.write(line.replace(/\s+/g, ' ').trim() + '\n');
+	process.exit(code);
+}
+
+interface Args {
+	file: string;
+	sweep: SweepKind;
+	from?: number;
+	to?: number;
+	step?: number;
+	rack?: number;
+	points: boolean;
+}
+
+/** Parse argv (after the script name); exits 1 on a bad option. */
+function parseArgs(argv: string[]): Args {
+	const files: string[] = [];
+	const nums: Record<string, number> = {};
+	let sweep: SweepKind = 'heave';
+	let points = false;
+	for (let i = 0; i < argv.length; i++) {
+		const [flag, inline] = argv[i].startsWith('--') ? argv[i].split(/=(.*)/s, 2) : [argv[i], undefined];
+		if (flag === '--help' || flag === '-h') {
+			process.stdout.write(HELP);
+			process.exit(0);
+		}
+		if (!flag.startsWith('--') || flag === '--') {
+			if (flag !== '--') files.push(flag);
+			continue;
+		}
+		if (flag === '--points') {
+			points = true;
+			continue;
+		}
+		const value = inline ?? argv[++i];
+		if (value === undefined) fail(1, `${flag}: missing value`);
+		if (flag === '--sweep') {
+			if (value !== 'heave' && value !== 'roll' && value !== 'steer') fail(1, `--sweep: must be heave, roll or steer`);
+			sweep = value;
+		} else if (['--from', '--to', '--step', '--rack'].includes(flag)) {
+			const n = value.trim() === '' ? NaN : Number(value);
+			if (!Number.isFinite(n)) fail(1, `${flag}: must be a finite number, got '${value}'`);
+			nums[flag.slice(2)] = n;
+		} else fail(1, `${flag}: unknown option (see --help)`);
+	}
+	if (files.length !== 1) fail(1, files.length ? 'FILE: give exactly one corner file' : 'FILE: missing (see --help)');
+	return { file: files[0], sweep, points, ...nums };
+}
+
+/** Read and validate the corner file; exits 1 with the field on failure. */
+function readCorner(file: string) {
+	let text: string;
+	try {
+		text = readFileSync(file, 'utf8');
+	} catch (e) {
+		fail(1, `FILE: cannot read ${file} (${(e as NodeJS.ErrnoException).code ?? 'error'})`);
+	}
+	let json: unknown;
+	try {
+		json = JSON.parse(text);
+	} catch (e) {
+		fail(1, `FILE: ${file} is not valid JSON (${(e as Error).message})`);
+	}
+	const parsed = parseCornerGeometry(json);
+	if (!parsed.ok) fail(1, parsed.message);
+	return parsed.corner;
+}
+
+/** Round to 1e-6 (mm or degrees) for printing; never -0. */
+function tidy(_key: string, v: unknown): unknown {
+	if (typeof v !== 'number') return v;
+	const r = Math.round(v * 1e6) / 1e6;
+	return r === 0 ? 0 : r;
+}
+
+/** Entry point. */
+function main(): void {
+	const args = parseArgs(process.argv.slice(2));
+	const d = SWEEP_DEFAULTS[args.sweep];
+	const from = args.from ?? d.from;
+	const to = args.to ?? d.to;
+	const step = args.step ?? d.step;
+	if (!(step > 0)) fail(1, '--step: must be > 0');
+	if (!(from <= to)) fail(1, `--from: must be <= --to (got ${from} > ${to})`);
+	if (args.rack !== undefined && args.sweep === 'steer') fail(1, '--rack: only with --sweep heave or roll');
+	const corner = readCorner(args.file);
+	let result: SweepResult;
+	try {
+		result = solveSweep(corner, { sweep: args.sweep, from, to, step, rack: args.rack, points: args.points });
+	} catch (e) {
+		if (e instanceof CornerGeometryError) fail(1, e.message);
+		throw e;
+	}
+	const out: Record<string, unknown> = { format: 'corner-solve/1', sweep: args.sweep, kind: corner.kind, samples: result.samples };
+	if (result.error) out.error = result.error;
+	process.stdout.write(JSON.stringify(out, tidy) + '\n');
+	if (result.error) fail(2, `${result.error.link}: cannot be assembled at ${args.sweep === 'heave' ? 'travel' : args.sweep === 'roll' ? 'roll' : 'rack'} ${result.error.position}${args.sweep === 'roll' ? ' deg' : ' mm'}`);
+}
+
+main();

@@ -1,0 +1,228 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; z = 0 ground at design ride height,
+// y = 0 centreline; lengths in mm, angles in degrees.
+// The one schema of a `corner-geometry/1` file (../shared/geometry-format.md), shared by the
+// app, the API and the solve command. Client-safe: imports only zod.
+
+import { z } from 'zod';
+
+/** Limits of a plausible corner; kept here because this module must stay client-safe. */
+export const GEOMETRY_LIMITS = {
+	/** two points closer than this (mm) coincide */
+	zeroLengthMm: 1e-6,
+	/** loaded tyre radius range (mm): a kart tyre to a large SUV tyre */
+	loadedRadiusMinMm: 100,
+	loadedRadiusMaxMm: 800,
+	/** largest allowed distance of the design contact point from z = 0 (mm, contract) */
+	contactOffGroundMm: 5,
+	/** coordinates beyond this (mm) are taken as a unit or frame error */
+	maxCoordinateMm: 100_000
+} as const;
+
+export const CORNER_KINDS = ['double_wishbone', 'strut'] as const;
+
+/** Points each kind needs (contract table). */
+export const REQUIRED_POINTS: Record<(typeof CORNER_KINDS)[number], readonly string[]> = {
+	double_wishbone: [
+		'lower.front',
+		'lower.rear',
+		'lower.outer',
+		'upper.front',
+		'upper.rear',
+		'upper.outer',
+		'steer.inner',
+		'steer.outer',
+		'wheel.centre',
+		'wheel.axis_inner'
+	],
+	strut: [
+		'lower.front',
+		'lower.rear',
+		'lower.outer',
+		'strut.top',
+		'strut.lower',
+		'steer.inner',
+		'steer.outer',
+		'wheel.centre',
+		'wheel.axis_inner'
+	]
+};
+
+const coordinate = z
+	.number({ error: 'must be a finite number (mm)' })
+	.refine((v) => Math.abs(v) <= GEOMETRY_LIMITS.maxCoordinateMm, 'is implausibly large (mm expected)');
+
+/** A point [x, y, z] in mm. */
+export const pointSchema = z.tuple([coordinate, coordinate, coordinate], { error: 'must be [x, y, z] in mm' });
+
+const fraction = (what: string) =>
+	z.number({ error: `must be a number in [0, 1] (${what})` }).min(0, 'must be in [0, 1]').max(1, 'must be in [0, 1]');
+
+export const vehicleSchema = z.object({
+	axle: z.enum(['front', 'rear'], { error: "must be 'front' or 'rear'" }),
+	wheelbase: z.number({ error: 'must be a number (mm)' }).gt(0, 'must be > 0'),
+	cg_height: z.number({ error: 'must be a number (mm)' }).gt(0, 'must be > 0'),
+	front_brake_fraction: fraction('front brake share').optional(),
+	rear_drive_fraction: fraction('rear drive share').optional()
+});
+
+const baseSchema = z.object({
+	format: z.literal('corner-geometry/1', { error: "must be 'corner-geometry/1'" }),
+	name: z.string().optional(),
+	kind: z.enum(CORNER_KINDS, {
+		error: (iss) => `unknown kind ${JSON.stringify(iss.input)} (expected double_wishbone or strut)`
+	}),
+	points: z.record(z.string(), pointSchema, { error: 'must be an object of named [x, y, z] points' }),
+	spring_on: z.enum(['lower', 'upper', 'upright'], { error: "must be 'lower', 'upper' or 'upright'" }).optional(),
+	tyre: z.object({
+		loaded_radius: z
+			.number({ error: 'must be a number (mm)' })
+			.min(GEOMETRY_LIMITS.loadedRadiusMinMm, `must be at least ${GEOMETRY_LIMITS.loadedRadiusMinMm} mm`)
+			.max(GEOMETRY_LIMITS.loadedRadiusMaxMm, `must be at most ${GEOMETRY_LIMITS.loadedRadiusMaxMm} mm`)
+	}),
+	vehicle: vehicleSchema.nullable().optional()
+});
+
+type Pt = [number, number, number];
+type Base = z.infer<typeof baseSchema>;
+type Ctx = z.RefinementCtx;
+
+const sub = (a: Pt, b: Pt): Pt => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
+const norm = (a: Pt): number => Math.hypot(a[0], a[1], a[2]);
+const crossLen = (a: Pt, b: Pt): number =>
+	Math.hypot(a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]);
+
+/** Report `message` at `path` (dotted field path under the file root). */
+function issue(ctx: Ctx, path: (string | number)[], message: string): void {
+	ctx.addIssue({ code: 'custom', path, message });
+}
+
+/** Required points present for the kind; false when some are missing. */
+function checkRequired(c: Base, ctx: Ctx): boolean {
+	let ok = true;
+	for (const name of REQUIRED_POINTS[c.kind]) {
+		if (!c.points[name]) {
+			issue(ctx, ['points', name], 'missing');
+			ok = false;
+		}
+	}
+	return ok;
+}
+
+/** An arm's pivots apart and its ball joint off the pivot axis (mm). */
+function checkArm(c: Base, ctx: Ctx, arm: 'lower' | 'upper'): void {
+	const f = c.points[`${arm}.front`];
+	const r = c.points[`${arm}.rear`];
+	const o = c.points[`${arm}.outer`];
+	const axis = sub(r, f);
+	const l = norm(axis);
+	if (l < GEOMETRY_LIMITS.zeroLengthMm) return issue(ctx, ['points', `${arm}.rear`], `coincides with ${arm}.front`);
+	if (crossLen(axis, sub(o, f)) / l < GEOMETRY_LIMITS.zeroLengthMm)
+		issue(ctx, ['points', `${arm}.outer`], `lies on the ${arm} arm pivot axis (zero-length arm)`);
+}
+
+/** Two points `a`, `b` must not coincide; the message names b. */
+function apart(c: Base, ctx: Ctx, a: string, b: string, what: string): void {
+	const p = c.points[a];
+	const q = c.points[b];
+	if (p && q && norm(sub(p, q)) < GEOMETRY_LIMITS.zeroLengthMm) issue(ctx, ['points', b], `coincides with ${a} (${what})`);
+}
+
+/** Spin axis, side of the car and the design contact point on the ground. */
+function checkWheel(c: Base, ctx: Ctx): void {
+	const w = c.points['wheel.centre'];
+	const a = c.points['wheel.axis_inner'];
+	if (w[1] === 0) return issue(ctx, ['points', 'wheel.centre'], 'y must not be 0 (y > 0 left corner, y < 0 right)');
+	const axis = sub(w, a);
+	const l = norm(axis);
+	if (l < GEOMETRY_LIMITS.zeroLengthMm)
+		return issue(ctx, ['points', 'wheel.axis_inner'], 'coincides with wheel.centre (zero-length spin axis)');
+	if (Math.sign(w[1]) * axis[1] <= 0)
+		return issue(ctx, ['points', 'wheel.axis_inner'], 'must lie inboard of wheel.centre on the spin axis');
+	const az = axis[2] / l;
+	const contactZ = w[2] - c.tyre.loaded_radius * Math.sqrt(Math.max(0, 1 - az * az));
+	if (Math.abs(contactZ) > GEOMETRY_LIMITS.contactOffGroundMm)
+		issue(
+			ctx,
+			['points', 'wheel.centre'],
+			`design contact point is ${contactZ.toFixed(1)} mm off the ground (z = 0 must be the ground at design ride height)`
+		);
+}
+
+/** Spring ends: both or neither, apart, and a body that exists for this kind. */
+function checkSpring(c: Base, ctx: Ctx): void {
+	const sc = c.points['spring.chassis'];
+	const sb = c.points['spring.body'];
+	if (!sc && !sb) return;
+	if (!sc) return issue(ctx, ['points', 'spring.chassis'], 'missing (spring.body is given)');
+	if (!sb) return issue(ctx, ['points', 'spring.body'], 'missing (spring.chassis is given)');
+	apart(c, ctx, 'spring.chassis', 'spring.body', 'zero-length spring');
+	if (!c.spring_on) return issue(ctx, ['spring_on'], 'required when spring points are given');
+	if (c.kind === 'strut' && c.spring_on === 'upper') issue(ctx, ['spring_on'], "a strut has no upper arm: use 'lower' or 'upright'");
+}
+
+/** The vehicle block rules of the contract. */
+function checkVehicle(c: Base, ctx: Ctx): void {
+	const v = c.vehicle;
+	if (v && v.axle === 'front' && v.front_brake_fraction === undefined)
+		issue(ctx, ['vehicle', 'front_brake_fraction'], 'required on a front axle');
+}
+
+/** The whole-file rules that need more than one field. */
+function checkCorner(c: Base, ctx: Ctx): void {
+	checkVehicle(c, ctx);
+	if (!checkRequired(c, ctx)) return;
+	checkArm(c, ctx, 'lower');
+	if (c.kind === 'double_wishbone') {
+		checkArm(c, ctx, 'upper');
+		apart(c, ctx, 'lower.outer', 'upper.outer', 'zero-length upright');
+	} else {
+		apart(c, ctx, 'strut.top', 'strut.lower', 'zero-length strut axis');
+		apart(c, ctx, 'lower.outer', 'strut.top', 'zero-length steering axis');
+	}
+	apart(c, ctx, 'steer.inner', 'steer.outer', 'zero-length tie rod');
+	checkWheel(c, ctx);
+	checkSpring(c, ctx);
+}
+
+/** The `corner-geometry/1` schema: shape first, then the geometric rules. */
+export const cornerGeometrySchema = baseSchema.superRefine(checkCorner);
+
+/** A validated corner geometry file. */
+export type CornerGeometry = z.infer<typeof cornerGeometrySchema>;
+
+/** Sweep options as the API and the solve command take them (mm, or degrees for roll). */
+export const sweepOptionsSchema = z
+	.object({
+		sweep: z.enum(['heave', 'roll', 'steer'], { error: "must be 'heave', 'roll' or 'steer'" }),
+		from: z.number({ error: 'must be a number' }),
+		to: z.number({ error: 'must be a number' }),
+		step: z.number({ error: 'must be a number' }).gt(0, 'must be > 0'),
+		rack: z.number({ error: 'must be a number (mm)' }).optional()
+	})
+	.refine((o) => o.from <= o.to, { path: ['from'], message: 'must be <= to' });
+
+/** Validated sweep options. */
+export type SweepOptionsInput = z.infer<typeof sweepOptionsSchema>;
+
+/** Default sweep ranges of the contract (mm, or degrees for roll). */
+export const SWEEP_DEFAULTS = {
+	heave: { from: -50, to: 50, step: 5 },
+	roll: { from: -3, to: 3, step: 0.5 },
+	steer: { from: -40, to: 40, step: 5 }
+} as const;
+
+/** One line naming the field of the first problem, e.g. `points.upper.outer: missing`. */
+export function formatIssue(error: z.ZodError): string {
+	const first = error.issues[0];
+	if (!first) return 'invalid input';
+	const path = first.path.map(String).join('.');
+	return path ? `${path}: ${first.message}` : first.message;
+}
+
+/** Parse a corner file; `{ ok: true, corner }` or `{ ok: false, message }` with the one-line message. */
+export function parseCornerGeometry(
+	input: unknown
+): { ok: true; corner: CornerGeometry } | { ok: false; message: string } {
+	const r = cornerGeometrySchema.safeParse(input);
+	return r.success ? { ok: true, corner: r.data } : { ok: false, message: formatIssue(r.error) };
+}
