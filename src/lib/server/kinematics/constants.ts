@@ -1,8 +1,11 @@
 // Frame: ISO 8855 vehicle axes, x forward, y left, z up; z = 0 ground at design ride height.
 // Every tolerance and limit of the kinematics engine lives here.
 
-/** Newton stops when the driving condition is met within this many mm. */
-export const NEWTON_TOL_MM = 1e-10;
+/**
+ * Below this residual (mm) the last Newton step is applied through the pose's velocity; the
+ * error left is second order, about (1e-4)² / 300 mm ≈ 1e-11 mm for a 300 mm arm.
+ */
+export const LINEAR_FINISH_MM = 1e-4;
 /** Newton iterations allowed per position before the position is declared unreachable. */
 export const NEWTON_MAX_ITER = 60;
 /** A derivative smaller than this (mm per rad) means the driver cannot move the linkage. */

@@ -70,6 +70,8 @@ export interface CornerModel {
 	bodySL: Vec3;
 	/** strut: unit strut axis in the upright, strut.lower toward strut.top */
 	strutAxis0: Vec3;
+	/** strut: design distance strut.lower to strut.top, mm */
+	strutTau0: number;
 	/** steer.outer body vector, mm */
 	bodyT: Vec3;
 	/** wheel.centre body vector, mm */
@@ -188,6 +190,7 @@ function build(input: CornerInput, need: (n: string) => Vec3): CornerModel {
 		strutTop: vec3(),
 		bodySL: vec3(),
 		strutAxis0: vec3(),
+		strutTau0: 0,
 		bodyT: sub(vec3(), T0, L0),
 		bodyW: sub(vec3(), W0, L0),
 		spinAxis0,
@@ -229,6 +232,7 @@ function buildStrut(m: CornerModel, need: (n: string) => Vec3): void {
 	const lowerPt = need('strut.lower');
 	copy(m.strutTop, top);
 	sub(m.bodySL, lowerPt, m.L0);
+	m.strutTau0 = len(sub(vec3(), top, lowerPt));
 	if (!normalize(m.strutAxis0, sub(vec3(), top, lowerPt), ZERO_LENGTH_MM))
 		fault('points.strut.lower', 'coincides with strut.top');
 	if (len(sub(vec3(), top, m.L0)) <= ZERO_LENGTH_MM) fault('points.strut.top', 'coincides with lower.outer');

@@ -190,7 +190,7 @@ function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float
 	if (fv) {
 		put(out, has, o, F_FVIC_Y, hit[0]);
 		put(out, has, o, F_FVIC_Z, hit[1]);
-		put(out, has, o, F_FVSA, Math.hypot(C[1] - hit[0], C[2] - hit[1]));
+		put(out, has, o, F_FVSA, Math.sqrt((C[1] - hit[0]) ** 2 + (C[2] - hit[1]) ** 2));
 	} else {
 		none(out, has, o, F_FVIC_Y);
 		none(out, has, o, F_FVIC_Z);

@@ -15,8 +15,11 @@ export function mat3(): Mat3 {
 
 /** out = rotation by `angle` (rad, right hand) about unit axis `n` (Rodrigues' formula). */
 export function axisAngle(out: Mat3, n: Vec3, angle: number): Mat3 {
-	const c = Math.cos(angle);
-	const s = Math.sin(angle);
+	return axisCosSin(out, n, Math.cos(angle), Math.sin(angle));
+}
+
+/** out = rotation about unit axis `n` by the angle whose cosine is `c` and sine `s`. */
+export function axisCosSin(out: Mat3, n: Vec3, c: number, s: number): Mat3 {
 	const t = 1 - c;
 	const x = n[0];
 	const y = n[1];
@@ -70,7 +73,7 @@ export function mul(out: Mat3, a: Mat3, b: Mat3): Mat3 {
 	return out;
 }
 
-/** out = R v (a direction, or a body vector; out may not alias v). */
+/** out = R v (a direction, or a body vector; out may alias v). */
 export function rotate(out: Vec3, r: Mat3, v: Vec3): Vec3 {
 	const x = v[0];
 	const y = v[1];
@@ -81,7 +84,7 @@ export function rotate(out: Vec3, r: Mat3, v: Vec3): Vec3 {
 	return out;
 }
 
-/** out = origin + R v: a body point `v` (mm, relative to the body origin) placed in the chassis. */
+/** out = origin + R v: body point `v` (mm, relative to the body origin) placed in the chassis (out may alias v). */
 export function place(out: Vec3, r: Mat3, v: Vec3, origin: Vec3): Vec3 {
 	rotate(out, r, v);
 	out[0] += origin[0];

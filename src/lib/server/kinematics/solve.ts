@@ -5,7 +5,7 @@
 // steering axis until the tie rod fits. A sweep's driving condition is then one equation
 // in θ, solved by Newton's method with the analytic derivative from a velocity analysis.
 
-import { ASSEMBLY_SLACK, DRIVER_SLOPE_MIN, NEWTON_MAX_ITER, NEWTON_TOL_MM, TINY } from './constants';
+import { ASSEMBLY_SLACK, DRIVER_SLOPE_MIN, LINEAR_FINISH_MM, NEWTON_MAX_ITER, TINY } from './constants';
 import {
 	KIND_STRUT,
 	SPRING_LOWER,
@@ -16,7 +16,7 @@ import {
 	type ArmCircle,
 	type CornerModel
 } from './corner';
-import { axisAngle, mat3, minimalRotation, mul, place, rotate } from './pose';
+import { axisCosSin, mat3, minimalRotation, mul, place, rotate } from './pose';
 import { cross, dot, len, vec3 } from './vec3';
 
 /** Result codes of a pose evaluation (0 = assembled). */
@@ -34,10 +34,12 @@ export const FAIL_LINK = ['', 'upper arm', 'tie rod', 'strut', 'lower arm', 'whe
 export class Branch {
 	/** lower-arm angle from design, rad */
 	theta = 0;
-	/** upper-arm angle from design, rad (double wishbone) */
-	phi = 0;
-	/** rotation about the steering axis, rad */
-	psi = 0;
+	/** cosine and sine of the upper-arm angle from design (double wishbone) */
+	phiC = 1;
+	phiS = 0;
+	/** cosine and sine of the rotation about the steering axis */
+	psiC = 1;
+	psiS = 0;
 	/** strut: distance along the strut axis from strut.lower to the point at the top mount, mm */
 	tau = 0;
 }
@@ -47,6 +49,8 @@ export class Pose {
 	readonly branch = new Branch();
 	/** rack travel along +y, mm */
 	rack = 0;
+	cosTheta = 1;
+	sinTheta = 0;
 	readonly L = vec3();
 	/** second steering-axis point: upper.outer, or strut.top */
 	readonly K = vec3();
@@ -67,6 +71,10 @@ export class Pose {
 	readonly dW = vec3();
 	readonly da = vec3();
 	readonly dB = vec3();
+	readonly dK = vec3();
+	readonly dT = vec3();
+	readonly dSL = vec3();
+	readonly dd = vec3();
 	dPhi = 0;
 	dSpringLength = 0;
 	/** false at a toggle position where the velocity analysis is singular */
@@ -83,40 +91,36 @@ const uhat = vec3();
 const rMin = mat3();
 const rPsi = mat3();
 const tMin = vec3();
-const solveOut = new Float64Array(1);
+const root = new Float64Array(2);
 
-/** out = the arm point at angle θ (rad) on circle `arm`. */
-function onCircle(out: Float64Array, arm: ArmCircle, theta: number): void {
-	const c = Math.cos(theta);
-	const s = Math.sin(theta);
+/** out = the arm point on circle `arm` at the angle of cosine c and sine s. */
+function onCircle(out: Float64Array, arm: ArmCircle, c: number, s: number): void {
 	out[0] = arm.c[0] + c * arm.r[0] + s * arm.s[0];
 	out[1] = arm.c[1] + c * arm.r[1] + s * arm.s[1];
 	out[2] = arm.c[2] + c * arm.r[2] + s * arm.s[2];
 }
 
-/** Wrap an angle difference (rad) into (-π, π]. */
-function wrap(x: number): number {
-	const t = x - 2 * Math.PI * Math.floor((x + Math.PI) / (2 * Math.PI));
-	return t;
-}
-
 /**
- * Solve A cos x + B sin x = C for the root nearest `prev` (rad); writes solveOut[0].
- * Returns false when no root exists (the link cannot reach).
+ * Solve A cos x + B sin x = C on the unit circle without trigonometry, taking the root whose
+ * (cos, sin) is nearest (pc, ps); writes root[0] = cos x, root[1] = sin x. False when no root
+ * exists (the link cannot reach).
  */
-function trigRoot(A: number, B: number, C: number, prev: number): boolean {
-	const M = Math.sqrt(A * A + B * B);
-	if (!(M > TINY)) return false;
-	let c = C / M;
-	if (c > 1 || c < -1) {
-		if (Math.abs(c) > 1 + ASSEMBLY_SLACK) return false;
-		c = c > 0 ? 1 : -1;
+function circleRoot(A: number, B: number, C: number, pc: number, ps: number): boolean {
+	const M2 = A * A + B * B;
+	if (!(M2 > TINY * TINY)) return false;
+	let D = M2 - C * C;
+	if (D < 0) {
+		if (D < -2 * ASSEMBLY_SLACK * M2) return false;
+		D = 0;
 	}
-	const base = Math.atan2(B, A);
-	const off = Math.acos(c);
-	const r1 = prev + wrap(base + off - prev);
-	const r2 = prev + wrap(base - off - prev);
-	solveOut[0] = Math.abs(r1 - prev) <= Math.abs(r2 - prev) ? r1 : r2;
+	const r = Math.sqrt(D);
+	const c1 = (A * C - B * r) / M2;
+	const s1 = (B * C + A * r) / M2;
+	const c2 = (A * C + B * r) / M2;
+	const s2 = (B * C - A * r) / M2;
+	const first = c1 * pc + s1 * ps >= c2 * pc + s2 * ps;
+	root[0] = first ? c1 : c2;
+	root[1] = first ? s1 : s2;
 	return true;
 }
 
@@ -130,9 +134,10 @@ function placeUpper(m: CornerModel, ref: Branch, p: Pose): number {
 	const A = 2 * (Dx * u.r[0] + Dy * u.r[1] + Dz * u.r[2]);
 	const B = 2 * (Dx * u.s[0] + Dy * u.s[1] + Dz * u.s[2]);
 	const C = m.kingpinLength * m.kingpinLength - (Dx * Dx + Dy * Dy + Dz * Dz) - rr;
-	if (!trigRoot(A, B, C, ref.phi)) return FAIL_UPPER;
-	p.branch.phi = solveOut[0];
-	onCircle(p.K, u, p.branch.phi);
+	if (!circleRoot(A, B, C, ref.phiC, ref.phiS)) return FAIL_UPPER;
+	p.branch.phiC = root[0];
+	p.branch.phiS = root[1];
+	onCircle(p.K, u, root[0], root[1]);
 	return OK;
 }
 
@@ -183,9 +188,10 @@ function closeTieRod(m: CornerModel, ref: Branch, p: Pose): number {
 	const B = 2 * (Dx * sx + Dy * sy + Dz * sz);
 	const l = m.tieRodLength;
 	const C = l * l - (Dx * Dx + Dy * Dy + Dz * Dz) - (rx * rx + ry * ry + rz * rz);
-	if (!trigRoot(A, B, C, ref.psi)) return FAIL_TIE_ROD;
-	p.branch.psi = solveOut[0];
-	axisAngle(rPsi, vhat, p.branch.psi);
+	if (!circleRoot(A, B, C, ref.psiC, ref.psiS)) return FAIL_TIE_ROD;
+	p.branch.psiC = root[0];
+	p.branch.psiS = root[1];
+	axisCosSin(rPsi, vhat, root[0], root[1]);
 	mul(p.R, rPsi, rMin);
 	return OK;
 }
@@ -197,7 +203,9 @@ function closeTieRod(m: CornerModel, ref: Branch, p: Pose): number {
 export function evalPose(m: CornerModel, ref: Branch, theta: number, rack: number, p: Pose): number {
 	p.branch.theta = theta;
 	p.rack = rack;
-	onCircle(p.L, m.lower, theta);
+	p.cosTheta = Math.cos(theta);
+	p.sinTheta = Math.sin(theta);
+	onCircle(p.L, m.lower, p.cosTheta, p.sinTheta);
 	p.S[0] = m.steerInner0[0];
 	p.S[1] = m.steerInner0[1] + rack;
 	p.S[2] = m.steerInner0[2];
@@ -237,7 +245,8 @@ function placeBodies(m: CornerModel, p: Pose): void {
 	}
 	if (m.springOn === SPRING_NONE) return;
 	if (m.springOn === SPRING_UPRIGHT) place(p.B, p.R, m.bodySpring, p.L);
-	else onCircle(p.B, m.springBody, m.springOn === SPRING_LOWER ? p.branch.theta : p.branch.phi);
+	else if (m.springOn === SPRING_LOWER) onCircle(p.B, m.springBody, p.cosTheta, p.sinTheta);
+	else onCircle(p.B, m.springBody, p.branch.phiC, p.branch.phiS);
 	const bx = p.B[0] - m.springChassis[0];
 	const by = p.B[1] - m.springChassis[1];
 	const bz = p.B[2] - m.springChassis[2];
@@ -260,6 +269,7 @@ function velocity(m: CornerModel, p: Pose): void {
 		if (Math.abs(dv) < TINY) return;
 		const sigma = dot(p.dL, tmpC) / dv;
 		for (let i = 0; i < 3; i++) w[i] = sigma * p.d[i] - p.dL[i];
+		p.dK[0] = p.dK[1] = p.dK[2] = 0;
 	} else {
 		const up = m.upper;
 		cross(tmpC, up.e, sub3(tmpA, p.K, up.c)); // dU per unit φ
@@ -267,14 +277,32 @@ function velocity(m: CornerModel, p: Pose): void {
 		const den = dot(tmpD, tmpC);
 		if (Math.abs(den) < TINY) return;
 		p.dPhi = dot(tmpD, p.dL) / den;
-		for (let i = 0; i < 3; i++) w[i] = p.dPhi * tmpC[i] - p.dL[i];
+		for (let i = 0; i < 3; i++) {
+			p.dK[i] = p.dPhi * tmpC[i];
+			w[i] = p.dK[i] - p.dL[i];
+		}
 	}
 	if (!turnAboutAxis(p, w)) return;
-	cross(tmpA, p.omega, sub3(tmpC, p.W, p.L));
-	for (let i = 0; i < 3; i++) p.dW[i] = p.dL[i] + tmpA[i];
+	bodyVelocity(p, p.W, p.dW);
+	bodyVelocity(p, p.T, p.dT);
 	cross(p.da, p.omega, p.a);
+	if (m.kind === KIND_STRUT) {
+		bodyVelocity(p, p.SL, p.dSL);
+		cross(p.dd, p.omega, p.d);
+	}
 	springVelocity(m, p);
 	p.velocityOk = true;
+}
+
+/** out = velocity of upright point q: dL + ω × (q − L). */
+function bodyVelocity(p: Pose, q: Float64Array, out: Float64Array): void {
+	const x = q[0] - p.L[0];
+	const y = q[1] - p.L[1];
+	const z = q[2] - p.L[2];
+	const w = p.omega;
+	out[0] = p.dL[0] + w[1] * z - w[2] * y;
+	out[1] = p.dL[1] + w[2] * x - w[0] * z;
+	out[2] = p.dL[2] + w[0] * y - w[1] * x;
 }
 
 /** ω = (v × w)/|v|² + λ v̂, λ from the tie rod (T − S)·dT = 0; false at a toggle. */
@@ -302,8 +330,7 @@ function turnAboutAxis(p: Pose, w: Float64Array): boolean {
 function springVelocity(m: CornerModel, p: Pose): void {
 	if (m.springOn === SPRING_NONE) return;
 	if (m.springOn === SPRING_UPRIGHT) {
-		cross(tmpA, p.omega, sub3(tmpC, p.B, p.L));
-		for (let i = 0; i < 3; i++) p.dB[i] = p.dL[i] + tmpA[i];
+		bodyVelocity(p, p.B, p.dB);
 	} else {
 		const arm = m.springOn === SPRING_LOWER ? m.lower : m.upper;
 		const rate = m.springOn === SPRING_UPPER ? p.dPhi : 1;
@@ -353,7 +380,9 @@ const residual = new Float64Array(2);
 
 /**
  * Newton on θ from `guess` (rad) until the driver holds, branches nearest `ref`; the solved
- * pose is left in `p`. Returns OK or the FAIL code of the link that stopped it.
+ * pose is left in `p`. Once the residual is below LINEAR_FINISH_MM the last Newton step is
+ * applied to the whole pose through its velocity (error O(step²), below 1e-10 mm), so a
+ * well-predicted position costs one evaluation. Returns OK or the FAIL code of the link.
  */
 export function solvePosition(
 	m: CornerModel,
@@ -373,12 +402,42 @@ export function solvePosition(
 			theta = 0.5 * (theta + good); // back off toward the last assembled angle
 			continue;
 		}
-		if (Math.abs(residual[0]) < NEWTON_TOL_MM) return OK;
 		if (Math.abs(residual[1]) < DRIVER_SLOPE_MIN) return lastFail;
+		const dTheta = -residual[0] / residual[1];
+		if (Math.abs(residual[0]) < LINEAR_FINISH_MM) {
+			advance(m, p, dTheta);
+			return OK;
+		}
 		good = theta;
-		theta -= residual[0] / residual[1];
+		theta += dTheta;
 	}
 	return lastFail;
+}
+
+/** Move pose p by dTheta (rad) along its velocity: the final Newton step, to first order. */
+function advance(m: CornerModel, p: Pose, dTheta: number): void {
+	p.branch.theta += dTheta;
+	for (let i = 0; i < 3; i++) {
+		p.L[i] += dTheta * p.dL[i];
+		p.K[i] += dTheta * p.dK[i];
+		p.W[i] += dTheta * p.dW[i];
+		p.T[i] += dTheta * p.dT[i];
+		p.a[i] += dTheta * p.da[i];
+		p.B[i] += dTheta * p.dB[i];
+		p.SL[i] += dTheta * p.dSL[i];
+		p.d[i] += dTheta * p.dd[i];
+	}
+	p.springLength += dTheta * p.dSpringLength;
+	renormalize(p.a);
+	if (m.kind === KIND_STRUT) renormalize(p.d);
+}
+
+/** Scale unit vector v back to length 1 after a first-order update. */
+function renormalize(v: Float64Array): void {
+	const l = Math.sqrt(v[0] * v[0] + v[1] * v[1] + v[2] * v[2]);
+	v[0] /= l;
+	v[1] /= l;
+	v[2] /= l;
 }
 
 /** Contact point of pose p against the ground of unit normal n (mm); false when the wheel lies flat. */

@@ -83,7 +83,26 @@ class Walker {
 	prevTheta = 0;
 	prev2P = 0;
 	prev2Theta = 0;
+	prev3P = 0;
+	prev3Theta = 0;
 	nHist = 0;
+}
+
+/** Lower-arm angle (rad) predicted at `param` by extrapolating the last one to three solutions. */
+function predict(w: Walker, param: number): number {
+	const p1 = w.prevP;
+	const p2 = w.prev2P;
+	const p3 = w.prev3P;
+	const t1 = w.prevTheta;
+	if (w.nHist < 2 || p1 === p2) return w.nHist >= 1 ? t1 : w.ref.theta;
+	const t2 = w.prev2Theta;
+	if (w.nHist < 3 || p3 === p1 || p3 === p2) return t1 + ((t1 - t2) * (param - p1)) / (p1 - p2);
+	const t3 = w.prev3Theta;
+	// Lagrange quadratic through the last three solved positions
+	const l1 = ((param - p2) * (param - p3)) / ((p1 - p2) * (p1 - p3));
+	const l2 = ((param - p1) * (param - p3)) / ((p2 - p1) * (p2 - p3));
+	const l3 = ((param - p1) * (param - p2)) / ((p3 - p1) * (p3 - p2));
+	return l1 * t1 + l2 * t2 + l3 * t3;
 }
 
 const walker = new Walker();
@@ -92,8 +111,10 @@ const DESIGN = new Branch();
 /** Copy branch b into a. */
 function setBranch(a: Branch, b: Branch): void {
 	a.theta = b.theta;
-	a.phi = b.phi;
-	a.psi = b.psi;
+	a.phiC = b.phiC;
+	a.phiS = b.phiS;
+	a.psiC = b.psiC;
+	a.psiS = b.psiS;
 	a.tau = b.tau;
 }
 
@@ -123,13 +144,12 @@ function drive(m: CornerModel, w: Walker, sweep: number, param: number, rack: nu
 /** Solve one position from the walker's state; on success the state moves there. */
 function step(m: CornerModel, w: Walker, sweep: number, param: number, rack: number): number {
 	const r = drive(m, w, sweep, param, rack);
-	let guess = w.ref.theta;
-	if (w.nHist >= 2 && w.prevP !== w.prev2P) {
-		guess = w.prevTheta + ((w.prevTheta - w.prev2Theta) * (param - w.prevP)) / (w.prevP - w.prev2P);
-	}
+	const guess = predict(w, param);
 	const code = solvePosition(m, w.ref, w.driver, r, guess, w.pose);
 	if (code !== OK) return code;
 	setBranch(w.ref, w.pose.branch);
+	w.prev3P = w.prev2P;
+	w.prev3Theta = w.prev2Theta;
 	w.prev2P = w.prevP;
 	w.prev2Theta = w.prevTheta;
 	w.prevP = param;
@@ -165,6 +185,7 @@ function restart(w: Walker, exact: boolean): void {
 /** Bring the rack from 0 to `rack` (mm) at design wheel-centre height; OK or a FAIL code. */
 function approachRack(m: CornerModel, w: Walker, rack: number): number {
 	setBranch(w.ref, DESIGN);
+	w.ref.tau = m.strutTau0;
 	w.nHist = 1;
 	w.prevP = 0;
 	w.prevTheta = 0;
