@@ -128,9 +128,10 @@ function noCircle(): ArmCircle {
 	return { e: vec3(), pivot: vec3(), c: vec3(), r: vec3(), s: vec3() };
 }
 
-/** Lowest point of the wheel (centre w, unit axis a, radius mm) against a ground of unit normal n. */
-export function contactPoint(out: Vec3, w: Vec3, a: Vec3, n: Vec3, radius: number): boolean {
-	const na = dot(n, a);
+/** Lowest point of the wheel (centre w, unit axis a, radius of m's tyre) against a ground of unit normal n. */
+export function contactPoint(out: Vec3, w: Vec3, a: Vec3, n: Vec3, m: { tyreRadius: number }): boolean {
+	const radius = m.tyreRadius;
+	const na = n[0] * a[0] + n[1] * a[1] + n[2] * a[2];
 	const px = n[0] - na * a[0];
 	const py = n[1] - na * a[1];
 	const pz = n[2] - na * a[2];
@@ -210,7 +211,7 @@ function build(input: CornerInput, need: (n: string) => Vec3): CornerModel {
 	if (strut) buildStrut(m, need);
 	else buildWishbone(m, need);
 	buildSpring(m, input);
-	if (!contactPoint(m.contact0, W0, spinAxis0, vec3(0, 0, 1), m.tyreRadius))
+	if (!contactPoint(m.contact0, W0, spinAxis0, vec3(0, 0, 1), m))
 		fault('points.wheel.axis_inner', 'wheel lies flat');
 	return m;
 }

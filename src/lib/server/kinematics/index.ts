@@ -2,11 +2,11 @@
 // y = 0 centreline. Lengths in mm; angles in degrees here at the edge (radians inside).
 // Public API of the kinematics engine: contract-shaped samples (`corner-solve/1`).
 
-import { DEG } from './constants';
+import { DEG, MAX_SAMPLES } from './constants';
 import { compileCorner, isFault, SPRING_NONE, KIND_STRUT, type CornerInput, type CornerModel } from './corner';
 import * as F from './measures';
 import { FAIL_LINK } from './solve';
-import { POINT_NAMES, runSweep, SweepBuffer, type SweepSpec } from './sweep';
+import { gridCount, POINT_NAMES, runSweep, SweepBuffer, type SweepSpec } from './sweep';
 
 export type { CornerInput, PointTuple, VehicleInput } from './corner';
 export { POINT_NAMES } from './sweep';
@@ -96,9 +96,11 @@ export class CornerSolver {
 		this.model = m;
 	}
 
-	/** Solve a sweep into this solver's buffer (no samples built); returns the buffer. */
+	private readonly spec: SweepSpec = { sweep: 0, from: 0, to: 0, step: 1, rack: 0, points: false };
+
+	/** Solve a sweep into this solver's buffer (no samples built, nothing allocated once warm); returns the buffer. */
 	run(options: SweepOptions): SweepBuffer {
-		runSweep(this.model, specOf(options), this.buffer);
+		runSweep(this.model, specOf(options, this.spec), this.buffer);
 		return this.buffer;
 	}
 
@@ -131,16 +133,29 @@ export function springInstalledLength(corner: CornerInput): number | null {
 	return new CornerSolver(corner).springInstalledLength();
 }
 
-/** The engine's sweep spec from API options; throws SweepOptionsError. */
-function specOf(o: SweepOptions): SweepSpec {
+/** Throw SweepOptionsError unless v is a finite number. */
+function finite(name: string, v: unknown): void {
+	if (typeof v !== 'number' || !Number.isFinite(v)) throw new SweepOptionsError(`${name}: must be a finite number`);
+}
+
+/** Fill `out` (the engine's sweep spec) from API options; throws SweepOptionsError. */
+function specOf(o: SweepOptions, out: SweepSpec): SweepSpec {
 	const rack = o.rack ?? 0;
-	if (!(o.sweep in SWEEP_CODE)) throw new SweepOptionsError(`sweep: unknown sweep '${String(o.sweep)}'`);
-	for (const [k, v] of [['from', o.from], ['to', o.to], ['step', o.step], ['rack', rack]] as const) {
-		if (typeof v !== 'number' || !Number.isFinite(v)) throw new SweepOptionsError(`${k}: must be a finite number`);
-	}
+	if (!Object.hasOwn(SWEEP_CODE, o.sweep)) throw new SweepOptionsError(`sweep: unknown sweep '${String(o.sweep)}'`);
+	finite('from', o.from);
+	finite('to', o.to);
+	finite('step', o.step);
+	finite('rack', rack);
 	if (!(o.step > 0)) throw new SweepOptionsError('step: must be > 0');
 	if (!(o.from <= o.to)) throw new SweepOptionsError('from: must be <= to');
-	return { sweep: SWEEP_CODE[o.sweep], from: o.from, to: o.to, step: o.step, rack, points: !!o.points };
+	if (gridCount(o.from, o.to, o.step) > MAX_SAMPLES) throw new SweepOptionsError(`step: more than ${MAX_SAMPLES} positions`);
+	out.sweep = SWEEP_CODE[o.sweep];
+	out.from = o.from;
+	out.to = o.to;
+	out.step = o.step;
+	out.rack = rack;
+	out.points = !!o.points;
+	return out;
 }
 
 /** Column f of row k, or null. */

@@ -48,14 +48,12 @@ const C = vec3();
 const line = new Float64Array(6);
 const hit = new Float64Array(2);
 
-/** Write value v (finite) into row `o` of out and mark it present. */
-function put(out: Float64Array, has: Uint8Array, o: number, f: number, v: number): void {
-	if (Number.isFinite(v)) {
-		out[o + f] = v;
-		has[o + f] = 1;
-	} else {
-		out[o + f] = 0;
-		has[o + f] = 0;
+/** Mark out[i] present when finite, else null (0 stored); takes no number argument, so none is boxed. */
+function mark(out: Float64Array, has: Uint8Array, i: number): void {
+	if (Number.isFinite(out[i])) has[i] = 1;
+	else {
+		out[i] = 0;
+		has[i] = 0;
 	}
 }
 
@@ -78,23 +76,31 @@ export function computeMeasures(
 	row: number
 ): boolean {
 	const o = row * N_FIELDS;
-	if (!contactPoint(C, p.W, p.a, ctx.n, m.tyreRadius)) return false;
+	if (!contactPoint(C, p.W, p.a, ctx.n, m)) return false;
 	const s = m.side;
 	const az = p.a[2] > 1 ? 1 : p.a[2] < -1 ? -1 : p.a[2];
 	const camber = -Math.asin(az);
-	put(out, has, o, F_CAMBER, camber);
-	put(out, has, o, F_TOE, Math.atan2(p.a[0], Math.abs(p.a[1])));
+	out[o + F_CAMBER] = camber;
+	mark(out, has, o + F_CAMBER);
+	out[o + F_TOE] = Math.atan2(p.a[0], Math.abs(p.a[1]));
+	mark(out, has, o + F_TOE);
 	const ax = p.K[0] - p.L[0];
 	const ay = p.K[1] - p.L[1];
 	const azz = p.K[2] - p.L[2];
-	put(out, has, o, F_CASTER, Math.atan2(-ax, azz));
-	put(out, has, o, F_KPI, Math.atan2(-s * ay, azz));
-	groundPoint(p, ctx.n, ax, ay, azz, out, has, o, s);
-	put(out, has, o, F_HALF_TRACK, s * (C[1] - m.contact0[1]));
-	put(out, has, o, F_WHEELBASE, C[0] - m.contact0[0]);
+	out[o + F_CASTER] = Math.atan2(-ax, azz);
+	mark(out, has, o + F_CASTER);
+	out[o + F_KPI] = Math.atan2(-s * ay, azz);
+	mark(out, has, o + F_KPI);
+	groundPoint(p, ctx.n, out, has, o, s);
+	out[o + F_HALF_TRACK] = s * (C[1] - m.contact0[1]);
+	mark(out, has, o + F_HALF_TRACK);
+	out[o + F_WHEELBASE] = C[0] - m.contact0[0];
+	mark(out, has, o + F_WHEELBASE);
 	instantCentres(m, p, ctx, out, has, o);
-	if (ctx.sweep === SWEEP_ROLL) put(out, has, o, F_CAMBER_GROUND, camber + s * ctx.roll);
-	else none(out, has, o, F_CAMBER_GROUND);
+	if (ctx.sweep === SWEEP_ROLL) {
+		out[o + F_CAMBER_GROUND] = camber + s * ctx.roll;
+		mark(out, has, o + F_CAMBER_GROUND);
+	} else none(out, has, o, F_CAMBER_GROUND);
 	motionRatio(m, p, out, has, o);
 	for (let i = 0; i < 3; i++) {
 		out[o + F_WC_X + i] = p.W[i];
@@ -103,22 +109,18 @@ export function computeMeasures(
 		has[o + F_CP_X + i] = 1;
 	}
 	if (m.springOn === SPRING_NONE) none(out, has, o, F_SPRING_LENGTH);
-	else put(out, has, o, F_SPRING_LENGTH, p.springLength);
+	else {
+		out[o + F_SPRING_LENGTH] = p.springLength;
+		mark(out, has, o + F_SPRING_LENGTH);
+	}
 	return true;
 }
 
 /** Scrub radius and trail from G, where the steering axis (L + t·axis) meets the ground. */
-function groundPoint(
-	p: Pose,
-	n: Float64Array,
-	ax: number,
-	ay: number,
-	az: number,
-	out: Float64Array,
-	has: Uint8Array,
-	o: number,
-	s: number
-): void {
+function groundPoint(p: Pose, n: Float64Array, out: Float64Array, has: Uint8Array, o: number, s: number): void {
+	const ax = p.K[0] - p.L[0];
+	const ay = p.K[1] - p.L[1];
+	const az = p.K[2] - p.L[2];
 	const den = n[0] * ax + n[1] * ay + n[2] * az;
 	if (Math.abs(den) < TINY) {
 		none(out, has, o, F_SCRUB);
@@ -128,15 +130,18 @@ function groundPoint(
 	const t = -(n[0] * p.L[0] + n[1] * p.L[1] + n[2] * p.L[2]) / den;
 	const gx = p.L[0] + t * ax;
 	const gy = p.L[1] + t * ay;
-	put(out, has, o, F_SCRUB, s * (C[1] - gy));
-	put(out, has, o, F_TRAIL, gx - C[0]);
+	out[o + F_SCRUB] = s * (C[1] - gy);
+	mark(out, has, o + F_SCRUB);
+	out[o + F_TRAIL] = gx - C[0];
+	mark(out, has, o + F_TRAIL);
 }
 
 /**
  * Cut of the plane through an arm's pivot axis and its ball joint by the plane x = x0 (view 0,
- * front; result a y + b z = c) or y = y0 (view 1, side; a x + b z = c); into line[k..k+2].
+ * front) or y = y0 (view 1, side), x0 and y0 from the wheel centre of p; a·u + b·z = c into line[k..k+2].
  */
-function armLine(e: Float64Array, pivot: Float64Array, joint: Float64Array, view: number, at: number, k: number): void {
+function armLine(e: Float64Array, pivot: Float64Array, joint: Float64Array, view: number, p: Pose, k: number): void {
+	const at = view === 0 ? p.W[0] : p.W[1];
 	const rx = joint[0] - pivot[0];
 	const ry = joint[1] - pivot[1];
 	const rz = joint[2] - pivot[2];
@@ -177,10 +182,9 @@ function meet(): boolean {
 
 /** Fill the lines of both arms (or arm and strut) for one view at the wheel-centre plane. */
 function viewLines(m: CornerModel, p: Pose, view: number): void {
-	const at = view === 0 ? p.W[0] : p.W[1];
-	armLine(m.lower.e, m.lower.pivot, p.L, view, at, 0);
+	armLine(m.lower.e, m.lower.pivot, p.L, view, p, 0);
 	if (m.kind === KIND_STRUT) strutLine(m, p, view, 3);
-	else armLine(m.upper.e, m.upper.pivot, p.K, view, at, 3);
+	else armLine(m.upper.e, m.upper.pivot, p.K, view, p, 3);
 }
 
 /** fvic, fvsa, rc_height, svic, anti-dive and anti-squat. */
@@ -188,9 +192,12 @@ function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float
 	viewLines(m, p, 0);
 	const fv = meet();
 	if (fv) {
-		put(out, has, o, F_FVIC_Y, hit[0]);
-		put(out, has, o, F_FVIC_Z, hit[1]);
-		put(out, has, o, F_FVSA, Math.sqrt((C[1] - hit[0]) ** 2 + (C[2] - hit[1]) ** 2));
+		out[o + F_FVIC_Y] = hit[0];
+		mark(out, has, o + F_FVIC_Y);
+		out[o + F_FVIC_Z] = hit[1];
+		mark(out, has, o + F_FVIC_Z);
+		out[o + F_FVSA] = Math.sqrt((C[1] - hit[0]) * (C[1] - hit[0]) + (C[2] - hit[1]) * (C[2] - hit[1]));
+		mark(out, has, o + F_FVSA);
 	} else {
 		none(out, has, o, F_FVIC_Y);
 		none(out, has, o, F_FVIC_Z);
@@ -201,8 +208,10 @@ function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float
 	viewLines(m, p, 1);
 	const sv = meet();
 	if (sv) {
-		put(out, has, o, F_SVIC_X, hit[0]);
-		put(out, has, o, F_SVIC_Z, hit[1]);
+		out[o + F_SVIC_X] = hit[0];
+		mark(out, has, o + F_SVIC_X);
+		out[o + F_SVIC_Z] = hit[1];
+		mark(out, has, o + F_SVIC_Z);
 	} else {
 		none(out, has, o, F_SVIC_X);
 		none(out, has, o, F_SVIC_Z);
@@ -222,7 +231,8 @@ function rollCentre(fv: boolean, out: Float64Array, has: Uint8Array, o: number):
 		dz = line[0];
 	}
 	if (Math.abs(dy) < TINY) return none(out, has, o, F_RC);
-	put(out, has, o, F_RC, C[2] + (dz * (0 - C[1])) / dy);
+	out[o + F_RC] = C[2] + (dz * (0 - C[1])) / dy;
+	mark(out, has, o + F_RC);
 }
 
 /** Anti-dive (front) / anti-squat (rear), percent (Milliken & Milliken, RCVD ch. 17, as in the contract). */
@@ -236,10 +246,12 @@ function anti(m: CornerModel, p: Pose, sv: boolean, out: Float64Array, has: Uint
 	const sz = hit[1];
 	if (v.front) {
 		if (C[0] === sx) return;
-		put(out, has, o, F_ANTI_DIVE, (k * (sz - C[2])) / (C[0] - sx));
+		out[o + F_ANTI_DIVE] = (k * (sz - C[2])) / (C[0] - sx);
+		mark(out, has, o + F_ANTI_DIVE);
 	} else {
 		if (sx === p.W[0]) return;
-		put(out, has, o, F_ANTI_SQUAT, (k * (sz - p.W[2])) / (sx - p.W[0]));
+		out[o + F_ANTI_SQUAT] = (k * (sz - p.W[2])) / (sx - p.W[0]);
+		mark(out, has, o + F_ANTI_SQUAT);
 	}
 }
 
@@ -248,5 +260,6 @@ function motionRatio(m: CornerModel, p: Pose, out: Float64Array, has: Uint8Array
 	if (m.springOn === SPRING_NONE || !p.velocityOk || Math.abs(p.dW[2]) < TINY) {
 		return none(out, has, o, F_MOTION_RATIO);
 	}
-	put(out, has, o, F_MOTION_RATIO, -p.dSpringLength / p.dW[2]);
+	out[o + F_MOTION_RATIO] = -p.dSpringLength / p.dW[2];
+	mark(out, has, o + F_MOTION_RATIO);
 }

@@ -15,11 +15,13 @@ export function mat3(): Mat3 {
 
 /** out = rotation by `angle` (rad, right hand) about unit axis `n` (Rodrigues' formula). */
 export function axisAngle(out: Mat3, n: Vec3, angle: number): Mat3 {
-	return axisCosSin(out, n, Math.cos(angle), Math.sin(angle));
+	return axisCosSin(out, n, new Float64Array([Math.cos(angle), Math.sin(angle)]));
 }
 
-/** out = rotation about unit axis `n` by the angle whose cosine is `c` and sine `s`. */
-export function axisCosSin(out: Mat3, n: Vec3, c: number, s: number): Mat3 {
+/** out = rotation about unit axis `n` by the angle whose [cosine, sine] are cs[0], cs[1]. */
+export function axisCosSin(out: Mat3, n: Vec3, cs: Float64Array): Mat3 {
+	const c = cs[0];
+	const s = cs[1];
 	const t = 1 - c;
 	const x = n[0];
 	const y = n[1];

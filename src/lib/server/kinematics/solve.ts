@@ -17,7 +17,7 @@ import {
 	type CornerModel
 } from './corner';
 import { axisCosSin, mat3, minimalRotation, mul, place, rotate } from './pose';
-import { cross, dot, len, vec3 } from './vec3';
+import { cross, vec3 } from './vec3';
 
 /** Result codes of a pose evaluation (0 = assembled). */
 export const OK = 0;
@@ -49,8 +49,8 @@ export class Pose {
 	readonly branch = new Branch();
 	/** rack travel along +y, mm */
 	rack = 0;
-	cosTheta = 1;
-	sinTheta = 0;
+	/** [cos θ, sin θ] */
+	readonly csTheta = new Float64Array(2);
 	readonly L = vec3();
 	/** second steering-axis point: upper.outer, or strut.top */
 	readonly K = vec3();
@@ -79,6 +79,9 @@ export class Pose {
 	dSpringLength = 0;
 	/** false at a toggle position where the velocity analysis is singular */
 	velocityOk = false;
+	/** solver inputs kept here so that no number is boxed on a call: start angle, last step (rad) */
+	guess = 0;
+	step = 0;
 }
 
 // Module-level scratch: the solver is synchronous, so one set serves every call.
@@ -92,9 +95,13 @@ const rMin = mat3();
 const rPsi = mat3();
 const tMin = vec3();
 const root = new Float64Array(2);
+const rootIn = new Float64Array(5);
+const csPhi = new Float64Array(2);
 
-/** out = the arm point on circle `arm` at the angle of cosine c and sine s. */
-function onCircle(out: Float64Array, arm: ArmCircle, c: number, s: number): void {
+/** out = the arm point on circle `arm` at the angle whose [cosine, sine] are cs[0], cs[1]. */
+function onCircle(out: Float64Array, arm: ArmCircle, cs: Float64Array): void {
+	const c = cs[0];
+	const s = cs[1];
 	out[0] = arm.c[0] + c * arm.r[0] + s * arm.s[0];
 	out[1] = arm.c[1] + c * arm.r[1] + s * arm.s[1];
 	out[2] = arm.c[2] + c * arm.r[2] + s * arm.s[2];
@@ -102,10 +109,15 @@ function onCircle(out: Float64Array, arm: ArmCircle, c: number, s: number): void
 
 /**
  * Solve A cos x + B sin x = C on the unit circle without trigonometry, taking the root whose
- * (cos, sin) is nearest (pc, ps); writes root[0] = cos x, root[1] = sin x. False when no root
- * exists (the link cannot reach).
+ * (cos, sin) is nearest (pc, ps); reads rootIn = [A, B, C, pc, ps] (scratch, so no number is
+ * boxed on the call), writes root = [cos x, sin x]. False when no root exists (link cannot reach).
  */
-function circleRoot(A: number, B: number, C: number, pc: number, ps: number): boolean {
+function circleRoot(): boolean {
+	const A = rootIn[0];
+	const B = rootIn[1];
+	const C = rootIn[2];
+	const pc = rootIn[3];
+	const ps = rootIn[4];
 	const M2 = A * A + B * B;
 	if (!(M2 > TINY * TINY)) return false;
 	let D = M2 - C * C;
@@ -130,14 +142,19 @@ function placeUpper(m: CornerModel, ref: Branch, p: Pose): number {
 	const Dx = u.c[0] - p.L[0];
 	const Dy = u.c[1] - p.L[1];
 	const Dz = u.c[2] - p.L[2];
-	const rr = dot(u.r, u.r);
+	const rr = (u.r[0] * u.r[0] + u.r[1] * u.r[1] + u.r[2] * u.r[2]);
 	const A = 2 * (Dx * u.r[0] + Dy * u.r[1] + Dz * u.r[2]);
 	const B = 2 * (Dx * u.s[0] + Dy * u.s[1] + Dz * u.s[2]);
 	const C = m.kingpinLength * m.kingpinLength - (Dx * Dx + Dy * Dy + Dz * Dz) - rr;
-	if (!circleRoot(A, B, C, ref.phiC, ref.phiS)) return FAIL_UPPER;
+	rootIn[0] = A;
+	rootIn[1] = B;
+	rootIn[2] = C;
+	rootIn[3] = ref.phiC;
+	rootIn[4] = ref.phiS;
+	if (!circleRoot()) return FAIL_UPPER;
 	p.branch.phiC = root[0];
 	p.branch.phiS = root[1];
-	onCircle(p.K, u, root[0], root[1]);
+	onCircle(p.K, u, root);
 	return OK;
 }
 
@@ -149,8 +166,8 @@ function placeStrut(m: CornerModel, ref: Branch, p: Pose): number {
 	const rz = P[2] - p.L[2];
 	const rho2 = rx * rx + ry * ry + rz * rz;
 	const g = m.bodySL;
-	const gd = dot(g, m.strutAxis0);
-	const disc = gd * gd - dot(g, g) + rho2;
+	const gd = (g[0] * m.strutAxis0[0] + g[1] * m.strutAxis0[1] + g[2] * m.strutAxis0[2]);
+	const disc = gd * gd - (g[0] * g[0] + g[1] * g[1] + g[2] * g[2]) + rho2;
 	if (disc < 0) return FAIL_STRUT;
 	const sq = Math.sqrt(disc);
 	const t1 = -gd + sq;
@@ -160,7 +177,7 @@ function placeStrut(m: CornerModel, ref: Branch, p: Pose): number {
 	tmpA[0] = g[0] + tau * m.strutAxis0[0];
 	tmpA[1] = g[1] + tau * m.strutAxis0[1];
 	tmpA[2] = g[2] + tau * m.strutAxis0[2];
-	const l = len(tmpA);
+	const l = Math.sqrt(tmpA[0] * tmpA[0] + tmpA[1] * tmpA[1] + tmpA[2] * tmpA[2]);
 	if (!(l > TINY)) return FAIL_STRUT;
 	uhat[0] = tmpA[0] / l;
 	uhat[1] = tmpA[1] / l;
@@ -174,7 +191,7 @@ function placeStrut(m: CornerModel, ref: Branch, p: Pose): number {
 /** Turn the upright about the steering axis until the tie rod fits; writes p.R. */
 function closeTieRod(m: CornerModel, ref: Branch, p: Pose): number {
 	rotate(tMin, rMin, m.bodyT);
-	const ac = dot(tMin, vhat);
+	const ac = (tMin[0] * vhat[0] + tMin[1] * vhat[1] + tMin[2] * vhat[2]);
 	const rx = tMin[0] - ac * vhat[0];
 	const ry = tMin[1] - ac * vhat[1];
 	const rz = tMin[2] - ac * vhat[2];
@@ -188,10 +205,15 @@ function closeTieRod(m: CornerModel, ref: Branch, p: Pose): number {
 	const B = 2 * (Dx * sx + Dy * sy + Dz * sz);
 	const l = m.tieRodLength;
 	const C = l * l - (Dx * Dx + Dy * Dy + Dz * Dz) - (rx * rx + ry * ry + rz * rz);
-	if (!circleRoot(A, B, C, ref.psiC, ref.psiS)) return FAIL_TIE_ROD;
+	rootIn[0] = A;
+	rootIn[1] = B;
+	rootIn[2] = C;
+	rootIn[3] = ref.psiC;
+	rootIn[4] = ref.psiS;
+	if (!circleRoot()) return FAIL_TIE_ROD;
 	p.branch.psiC = root[0];
 	p.branch.psiS = root[1];
-	axisCosSin(rPsi, vhat, root[0], root[1]);
+	axisCosSin(rPsi, vhat, root);
 	mul(p.R, rPsi, rMin);
 	return OK;
 }
@@ -200,12 +222,19 @@ function closeTieRod(m: CornerModel, ref: Branch, p: Pose): number {
  * Assemble the corner at lower-arm angle `theta` (rad) and rack travel `rack` (mm), choosing
  * each branch nearest to `ref`; fills `p` (positions and velocities). Returns OK or a FAIL code.
  */
-export function evalPose(m: CornerModel, ref: Branch, theta: number, rack: number, p: Pose): number {
+export function assemble(m: CornerModel, ref: Branch, theta: number, rack: number, p: Pose): number {
 	p.branch.theta = theta;
 	p.rack = rack;
-	p.cosTheta = Math.cos(theta);
-	p.sinTheta = Math.sin(theta);
-	onCircle(p.L, m.lower, p.cosTheta, p.sinTheta);
+	return evalPose(m, ref, p);
+}
+
+/** As `assemble`, with θ (rad) and rack (mm) already in p.branch.theta and p.rack (hot path). */
+export function evalPose(m: CornerModel, ref: Branch, p: Pose): number {
+	const theta = p.branch.theta;
+	const rack = p.rack;
+	p.csTheta[0] = Math.cos(theta);
+	p.csTheta[1] = Math.sin(theta);
+	onCircle(p.L, m.lower, p.csTheta);
 	p.S[0] = m.steerInner0[0];
 	p.S[1] = m.steerInner0[1] + rack;
 	p.S[2] = m.steerInner0[2];
@@ -221,7 +250,7 @@ export function evalPose(m: CornerModel, ref: Branch, theta: number, rack: numbe
 	vhat[0] = p.K[0] - p.L[0];
 	vhat[1] = p.K[1] - p.L[1];
 	vhat[2] = p.K[2] - p.L[2];
-	const vl = len(vhat);
+	const vl = Math.sqrt(vhat[0] * vhat[0] + vhat[1] * vhat[1] + vhat[2] * vhat[2]);
 	if (!(vl > TINY)) return strut ? FAIL_STRUT : FAIL_UPPER;
 	vhat[0] /= vl;
 	vhat[1] /= vl;
@@ -245,8 +274,12 @@ function placeBodies(m: CornerModel, p: Pose): void {
 	}
 	if (m.springOn === SPRING_NONE) return;
 	if (m.springOn === SPRING_UPRIGHT) place(p.B, p.R, m.bodySpring, p.L);
-	else if (m.springOn === SPRING_LOWER) onCircle(p.B, m.springBody, p.cosTheta, p.sinTheta);
-	else onCircle(p.B, m.springBody, p.branch.phiC, p.branch.phiS);
+	else if (m.springOn === SPRING_LOWER) onCircle(p.B, m.springBody, p.csTheta);
+	else {
+		csPhi[0] = p.branch.phiC;
+		csPhi[1] = p.branch.phiS;
+		onCircle(p.B, m.springBody, csPhi);
+	}
 	const bx = p.B[0] - m.springChassis[0];
 	const by = p.B[1] - m.springChassis[1];
 	const bz = p.B[2] - m.springChassis[2];
@@ -265,18 +298,18 @@ function velocity(m: CornerModel, p: Pose): void {
 	if (m.kind === KIND_STRUT) {
 		// the upright point at the top mount slides along the strut axis: σ d − dL ⊥ (K − L)
 		sub3(tmpC, p.K, p.L);
-		const dv = dot(p.d, tmpC);
+		const dv = (p.d[0] * tmpC[0] + p.d[1] * tmpC[1] + p.d[2] * tmpC[2]);
 		if (Math.abs(dv) < TINY) return;
-		const sigma = dot(p.dL, tmpC) / dv;
+		const sigma = (p.dL[0] * tmpC[0] + p.dL[1] * tmpC[1] + p.dL[2] * tmpC[2]) / dv;
 		for (let i = 0; i < 3; i++) w[i] = sigma * p.d[i] - p.dL[i];
 		p.dK[0] = p.dK[1] = p.dK[2] = 0;
 	} else {
 		const up = m.upper;
 		cross(tmpC, up.e, sub3(tmpA, p.K, up.c)); // dU per unit φ
 		sub3(tmpD, p.K, p.L);
-		const den = dot(tmpD, tmpC);
+		const den = (tmpD[0] * tmpC[0] + tmpD[1] * tmpC[1] + tmpD[2] * tmpC[2]);
 		if (Math.abs(den) < TINY) return;
-		p.dPhi = dot(tmpD, p.dL) / den;
+		p.dPhi = (tmpD[0] * p.dL[0] + tmpD[1] * p.dL[1] + tmpD[2] * p.dL[2]) / den;
 		for (let i = 0; i < 3; i++) {
 			p.dK[i] = p.dPhi * tmpC[i];
 			w[i] = p.dK[i] - p.dL[i];
@@ -308,7 +341,7 @@ function bodyVelocity(p: Pose, q: Float64Array, out: Float64Array): void {
 /** ω = (v × w)/|v|² + λ v̂, λ from the tie rod (T − S)·dT = 0; false at a toggle. */
 function turnAboutAxis(p: Pose, w: Float64Array): boolean {
 	sub3(tmpC, p.K, p.L);
-	const vv = dot(tmpC, tmpC);
+	const vv = (tmpC[0] * tmpC[0] + tmpC[1] * tmpC[1] + tmpC[2] * tmpC[2]);
 	cross(p.omega, tmpC, w);
 	for (let i = 0; i < 3; i++) p.omega[i] /= vv;
 	const TL = sub3(tmpD, p.T, p.L);
@@ -338,7 +371,7 @@ function springVelocity(m: CornerModel, p: Pose): void {
 		for (let i = 0; i < 3; i++) p.dB[i] *= rate;
 	}
 	sub3(tmpC, p.B, m.springChassis);
-	p.dSpringLength = p.springLength > TINY ? dot(tmpC, p.dB) / p.springLength : 0;
+	p.dSpringLength = p.springLength > TINY ? (tmpC[0] * p.dB[0] + tmpC[1] * p.dB[1] + tmpC[2] * p.dB[2]) / p.springLength : 0;
 }
 
 /** out = a − b (local copy to keep this file's hot path self-contained). */
@@ -367,36 +400,30 @@ function driverResidual(m: CornerModel, d: Driver, p: Pose, out: Float64Array): 
 		return true;
 	}
 	const n = d.n;
-	const na = dot(n, p.a);
+	const na = (n[0] * p.a[0] + n[1] * p.a[1] + n[2] * p.a[2]);
 	const q = 1 - na * na;
 	if (!(q > TINY)) return false;
 	const sq = Math.sqrt(q);
-	out[0] = dot(n, p.W) - m.tyreRadius * sq;
-	out[1] = dot(n, p.dW) + (m.tyreRadius * na * dot(n, p.da)) / sq;
+	out[0] = (n[0] * p.W[0] + n[1] * p.W[1] + n[2] * p.W[2]) - m.tyreRadius * sq;
+	out[1] = (n[0] * p.dW[0] + n[1] * p.dW[1] + n[2] * p.dW[2]) + (m.tyreRadius * na * (n[0] * p.da[0] + n[1] * p.da[1] + n[2] * p.da[2])) / sq;
 	return true;
 }
 
 const residual = new Float64Array(2);
 
 /**
- * Newton on θ from `guess` (rad) until the driver holds, branches nearest `ref`; the solved
+ * Newton on θ from p.guess (rad), rack p.rack (mm), until the driver holds, branches nearest `ref`; the solved
  * pose is left in `p`. Once the residual is below LINEAR_FINISH_MM the last Newton step is
  * applied to the whole pose through its velocity (error O(step²), below 1e-10 mm), so a
  * well-predicted position costs one evaluation. Returns OK or the FAIL code of the link.
  */
-export function solvePosition(
-	m: CornerModel,
-	ref: Branch,
-	d: Driver,
-	rack: number,
-	guess: number,
-	p: Pose
-): number {
-	let theta = guess;
+export function solvePosition(m: CornerModel, ref: Branch, d: Driver, p: Pose): number {
+	let theta = p.guess;
 	let good = ref.theta;
 	let lastFail = FAIL_LOWER;
 	for (let iter = 0; iter < NEWTON_MAX_ITER; iter++) {
-		const code = evalPose(m, ref, theta, rack, p);
+		p.branch.theta = theta;
+		const code = evalPose(m, ref, p);
 		if (code !== OK || !p.velocityOk || !driverResidual(m, d, p, residual)) {
 			lastFail = code !== OK ? code : FAIL_LOWER;
 			theta = 0.5 * (theta + good); // back off toward the last assembled angle
@@ -405,7 +432,8 @@ export function solvePosition(
 		if (Math.abs(residual[1]) < DRIVER_SLOPE_MIN) return lastFail;
 		const dTheta = -residual[0] / residual[1];
 		if (Math.abs(residual[0]) < LINEAR_FINISH_MM) {
-			advance(m, p, dTheta);
+			p.step = dTheta;
+			advance(m, p);
 			return OK;
 		}
 		good = theta;
@@ -414,8 +442,9 @@ export function solvePosition(
 	return lastFail;
 }
 
-/** Move pose p by dTheta (rad) along its velocity: the final Newton step, to first order. */
-function advance(m: CornerModel, p: Pose, dTheta: number): void {
+/** Move pose p by p.step (rad of θ) along its velocity: the final Newton step, to first order. */
+function advance(m: CornerModel, p: Pose): void {
+	const dTheta = p.step;
 	p.branch.theta += dTheta;
 	for (let i = 0; i < 3; i++) {
 		p.L[i] += dTheta * p.dL[i];
@@ -442,5 +471,5 @@ function renormalize(v: Float64Array): void {
 
 /** Contact point of pose p against the ground of unit normal n (mm); false when the wheel lies flat. */
 export function poseContact(m: CornerModel, p: Pose, n: Float64Array, out: Float64Array): boolean {
-	return contactPoint(out, p.W, p.a, n, m.tyreRadius);
+	return contactPoint(out, p.W, p.a, n, m);
 }

@@ -72,13 +72,18 @@ function gridValue(from: number, step: number, k: number): number {
 	return Math.round((from + k * step) * 1e12) / 1e12;
 }
 
-/** The continuation state carried from one position to the next. */
+/** The continuation state carried from one position to the next (numbers kept in fields so none is boxed). */
 class Walker {
 	readonly ref = new Branch();
 	readonly pose = new Pose();
 	readonly driver: Driver = { mode: 0, targetZ: 0, n: vec3(0, 0, 1) };
 	readonly ctx: MeasureContext = { sweep: 0, roll: 0, n: vec3(0, 0, 1) };
 	readonly start = new Branch();
+	/** sweep kind (SWEEP_*), rack held (mm), current and target position (mm or degrees) */
+	sweep = 0;
+	rackHeld = 0;
+	at = 0;
+	target = 0;
 	prevP = 0;
 	prevTheta = 0;
 	prev2P = 0;
@@ -88,25 +93,30 @@ class Walker {
 	nHist = 0;
 }
 
-/** Lower-arm angle (rad) predicted at `param` by extrapolating the last one to three solutions. */
-function predict(w: Walker, param: number): number {
+const walker = new Walker();
+const DESIGN = new Branch();
+
+/** Set w.pose.guess: θ (rad) at w.at extrapolated from the last one to three solutions. */
+function predict(w: Walker): void {
+	const x = w.at;
 	const p1 = w.prevP;
 	const p2 = w.prev2P;
 	const p3 = w.prev3P;
 	const t1 = w.prevTheta;
-	if (w.nHist < 2 || p1 === p2) return w.nHist >= 1 ? t1 : w.ref.theta;
 	const t2 = w.prev2Theta;
-	if (w.nHist < 3 || p3 === p1 || p3 === p2) return t1 + ((t1 - t2) * (param - p1)) / (p1 - p2);
 	const t3 = w.prev3Theta;
-	// Lagrange quadratic through the last three solved positions
-	const l1 = ((param - p2) * (param - p3)) / ((p1 - p2) * (p1 - p3));
-	const l2 = ((param - p1) * (param - p3)) / ((p2 - p1) * (p2 - p3));
-	const l3 = ((param - p1) * (param - p2)) / ((p3 - p1) * (p3 - p2));
-	return l1 * t1 + l2 * t2 + l3 * t3;
+	if (w.nHist < 2 || p1 === p2) {
+		w.pose.guess = w.nHist >= 1 ? t1 : w.ref.theta;
+	} else if (w.nHist < 3 || p3 === p1 || p3 === p2) {
+		w.pose.guess = t1 + ((t1 - t2) * (x - p1)) / (p1 - p2);
+	} else {
+		// Lagrange quadratic through the last three solved positions
+		const l1 = ((x - p2) * (x - p3)) / ((p1 - p2) * (p1 - p3));
+		const l2 = ((x - p1) * (x - p3)) / ((p2 - p1) * (p2 - p3));
+		const l3 = ((x - p1) * (x - p2)) / ((p3 - p1) * (p3 - p2));
+		w.pose.guess = l1 * t1 + l2 * t2 + l3 * t3;
+	}
 }
-
-const walker = new Walker();
-const DESIGN = new Branch();
 
 /** Copy branch b into a. */
 function setBranch(a: Branch, b: Branch): void {
@@ -118,66 +128,66 @@ function setBranch(a: Branch, b: Branch): void {
 	a.tau = b.tau;
 }
 
-/** Set the driver and context for sweep kind `sweep` at position `param` (mm or degrees); returns the rack (mm). */
-function drive(m: CornerModel, w: Walker, sweep: number, param: number, rack: number): number {
-	w.ctx.sweep = sweep;
+/** Set the driver, context and rack (w.pose.rack) for w.sweep at position w.at (mm or degrees). */
+function drive(m: CornerModel, w: Walker): void {
+	w.ctx.sweep = w.sweep;
 	const n = w.ctx.n;
-	if (sweep === SWEEP_ROLL) {
-		const r = param * RAD;
+	w.pose.rack = w.sweep === SWEEP_STEER ? w.at : w.rackHeld;
+	if (w.sweep === SWEEP_ROLL) {
+		const r = w.at * RAD;
 		w.ctx.roll = r;
 		n[0] = 0;
 		n[1] = -Math.sin(r); // positive roll puts the left side down: the ground rises on the left
 		n[2] = Math.cos(r);
 		w.driver.mode = 1;
 		w.driver.n = n;
-		return rack;
+		return;
 	}
 	w.ctx.roll = 0;
 	n[0] = 0;
 	n[1] = 0;
 	n[2] = 1;
 	w.driver.mode = 0;
-	w.driver.targetZ = m.wheelCentreZ0 + (sweep === SWEEP_HEAVE ? param : 0);
-	return sweep === SWEEP_STEER ? param : rack;
+	w.driver.targetZ = m.wheelCentreZ0 + (w.sweep === SWEEP_HEAVE ? w.at : 0);
 }
 
-/** Solve one position from the walker's state; on success the state moves there. */
-function step(m: CornerModel, w: Walker, sweep: number, param: number, rack: number): number {
-	const r = drive(m, w, sweep, param, rack);
-	const guess = predict(w, param);
-	const code = solvePosition(m, w.ref, w.driver, r, guess, w.pose);
+/** Solve the position w.at from the walker's state; on success the state moves there. */
+function step(m: CornerModel, w: Walker): number {
+	drive(m, w);
+	predict(w);
+	const code = solvePosition(m, w.ref, w.driver, w.pose);
 	if (code !== OK) return code;
 	setBranch(w.ref, w.pose.branch);
 	w.prev3P = w.prev2P;
 	w.prev3Theta = w.prev2Theta;
 	w.prev2P = w.prevP;
 	w.prev2Theta = w.prevTheta;
-	w.prevP = param;
+	w.prevP = w.at;
 	w.prevTheta = w.pose.branch.theta;
 	w.nHist++;
 	return OK;
 }
 
-/** Largest continuation step for a sweep kind (grid units: mm, or degrees for roll). */
-function maxStep(sweep: number): number {
-	return sweep === SWEEP_ROLL ? MAX_STEP_ROLL_RAD / RAD : MAX_STEP_MM;
-}
-
-/** Move from the walker's position `from` to `to` in steps no longer than maxStep; OK or a FAIL code. */
-function travelTo(m: CornerModel, w: Walker, sweep: number, from: number, to: number, rack: number): number {
-	const h = maxStep(sweep);
+/** Move from w.at to w.target in steps no longer than maxStep; OK or a FAIL code (w.at where it stopped). */
+function travelTo(m: CornerModel, w: Walker): number {
+	const from = w.at;
+	const to = w.target;
+	const h = w.sweep === SWEEP_ROLL ? MAX_STEP_ROLL_RAD / RAD : MAX_STEP_MM; // grid units
 	const n = Math.ceil(Math.abs(to - from) / h - 1e-9);
 	for (let i = 1; i < n; i++) {
-		const code = step(m, w, sweep, from + ((to - from) * i) / n, rack);
+		w.at = from + ((to - from) * i) / n;
+		const code = step(m, w);
 		if (code !== OK) return code;
 	}
-	return step(m, w, sweep, to, rack);
+	w.at = to;
+	return step(m, w);
 }
 
-/** Reset the walker to the start state; `exact` when that state already satisfies the driver at 0. */
+/** Reset the walker to the start state at position 0; `exact` when that state satisfies the driver. */
 function restart(w: Walker, exact: boolean): void {
 	setBranch(w.ref, w.start);
 	w.nHist = exact ? 1 : 0;
+	w.at = 0;
 	w.prevP = 0;
 	w.prevTheta = w.start.theta;
 }
@@ -189,7 +199,10 @@ function approachRack(m: CornerModel, w: Walker, rack: number): number {
 	w.nHist = 1;
 	w.prevP = 0;
 	w.prevTheta = 0;
-	const code = rack === 0 ? OK : travelTo(m, w, SWEEP_STEER, 0, rack, 0);
+	w.sweep = SWEEP_STEER;
+	w.at = 0;
+	w.target = rack;
+	const code = rack === 0 ? OK : travelTo(m, w);
 	setBranch(w.start, w.ref);
 	return code;
 }
@@ -218,11 +231,12 @@ function writePoints(m: CornerModel, p: Pose, buf: SweepBuffer, row: number): vo
 	if (m.springOn !== SPRING_NONE) set(13, p.B);
 }
 
-/** Solve and record grid row k; false (with the failure recorded) when it cannot be assembled. */
-function solveRow(m: CornerModel, spec: SweepSpec, buf: SweepBuffer, k: number, last: number): boolean {
+/** Solve and record grid row k from the walker's position; false (failure recorded) when it cannot be assembled. */
+function solveRow(m: CornerModel, spec: SweepSpec, buf: SweepBuffer, k: number): boolean {
 	const w = walker;
 	const target = buf.positions[k];
-	let code = travelTo(m, w, spec.sweep, last, target, spec.rack);
+	w.target = target;
+	let code = travelTo(m, w);
 	if (code === OK && !computeMeasures(m, w.pose, w.ctx, buf.values, buf.has, k)) code = FAIL_CONTACT;
 	if (code !== OK) {
 		if (buf.failCode === OK || Math.abs(target) < Math.abs(buf.failPosition)) {
@@ -256,18 +270,14 @@ export function runSweep(m: CornerModel, spec: SweepSpec, buf: SweepBuffer): voi
 	let first = 0; // first grid index at or above design (0)
 	while (first < n && buf.positions[first] < 0) first++;
 	const exact = spec.sweep !== SWEEP_ROLL;
+	walker.sweep = spec.sweep;
+	walker.rackHeld = rack;
 	restart(walker, exact);
 	let hi = first - 1;
-	for (let k = first, last = 0; k < n && solveRow(m, spec, buf, k, last); k++) {
-		hi = k;
-		last = buf.positions[k];
-	}
+	for (let k = first; k < n && solveRow(m, spec, buf, k); k++) hi = k;
 	restart(walker, exact);
 	let lo = first;
-	for (let k = first - 1, last = 0; k >= 0 && solveRow(m, spec, buf, k, last); k--) {
-		lo = k;
-		last = buf.positions[k];
-	}
+	for (let k = first - 1; k >= 0 && solveRow(m, spec, buf, k); k--) lo = k;
 	buf.lo = lo;
 	buf.hi = hi;
 }
