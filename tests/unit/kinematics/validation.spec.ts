@@ -26,7 +26,7 @@ const CASES: [string, Edit, RegExp][] = [
 	['point with two coordinates', (c) => (c.points['steer.inner'] = [1, 2]), /^points\.steer\.inner/],
 	['coincident lower pivots', (c) => (c.points['lower.rear'] = [...c.points['lower.front']]), /^points\.lower\.rear: coincides with lower\.front/],
 	['coincident upper pivots', (c) => (c.points['upper.front'] = [...c.points['upper.rear']]), /^points\.upper\.rear: coincides/],
-	['zero-length lower arm', (c) => (c.points['lower.outer'] = [0, 339.5, 129.7]) // on the pivot axis at x = 0, /^points\.lower\.outer: lies on the lower arm pivot axis/],
+	['zero-length lower arm (ball joint on the pivot axis)', (c) => (c.points['lower.outer'] = [0, 339.5, 129.7]), /^points\.lower\.outer: lies on the lower arm pivot axis/],
 	['zero-length tie rod', (c) => (c.points['steer.inner'] = [...c.points['steer.outer']]), /^points\.steer\.outer: coincides with steer\.inner/],
 	['zero-length upright', (c) => (c.points['upper.outer'] = [...c.points['lower.outer']]), /^points\.upper\.outer: coincides with lower\.outer/],
 	['zero-length spin axis', (c) => (c.points['wheel.axis_inner'] = [...c.points['wheel.centre']]), /^points\.wheel\.axis_inner: coincides with wheel\.centre/],
