@@ -79,6 +79,8 @@ export class Pose {
 	dSpringLength = 0;
 	/** false at a toggle position where the velocity analysis is singular */
 	velocityOk = false;
+	/** the link at the toggle when velocityOk is false (FAIL_* code) */
+	velocityFail = 0;
 	/** solver inputs kept here so that no number is boxed on a call: start angle, last step (rad) */
 	guess = 0;
 	step = 0;
@@ -292,6 +294,7 @@ function placeBodies(m: CornerModel, p: Pose): void {
  */
 function velocity(m: CornerModel, p: Pose): void {
 	p.velocityOk = false;
+	p.velocityFail = m.kind === KIND_STRUT ? FAIL_STRUT : FAIL_UPPER;
 	const lo = m.lower;
 	cross(p.dL, lo.e, sub3(tmpA, p.L, lo.c));
 	const w = tmpB; // velocity of the steering-axis point K relative to L
@@ -315,6 +318,7 @@ function velocity(m: CornerModel, p: Pose): void {
 			w[i] = p.dK[i] - p.dL[i];
 		}
 	}
+	p.velocityFail = FAIL_TIE_ROD;
 	if (!turnAboutAxis(p, w)) return;
 	bodyVelocity(p, p.W, p.dW);
 	bodyVelocity(p, p.T, p.dT);
@@ -425,7 +429,7 @@ export function solvePosition(m: CornerModel, ref: Branch, d: Driver, p: Pose): 
 		p.branch.theta = theta;
 		const code = evalPose(m, ref, p);
 		if (code !== OK || !p.velocityOk || !driverResidual(m, d, p, residual)) {
-			lastFail = code !== OK ? code : FAIL_LOWER;
+			lastFail = code !== OK ? code : p.velocityOk ? FAIL_CONTACT : p.velocityFail;
 			theta = 0.5 * (theta + good); // back off toward the last assembled angle
 			continue;
 		}

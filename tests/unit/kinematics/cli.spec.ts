@@ -1,0 +1,141 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; lengths in mm, angles in degrees.
+// The solve command as users and outside checks run it (contract: corner-solve/1 output,
+// defaults, grid, exit codes 0 / 1 / 2 with one line on stderr).
+
+import { execFile } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, it } from 'vitest';
+import { clone, fixture, ROOT } from './helpers';
+
+interface Run {
+	code: number;
+	stdout: string;
+	stderr: string;
+}
+
+/** Run `npx tsx scripts/solve.ts ...args` from the repository root. */
+function solve(...args: string[]): Promise<Run> {
+	return new Promise((resolve) => {
+		execFile('npx', ['tsx', 'scripts/solve.ts', ...args], { cwd: ROOT, timeout: 60_000 }, (err, stdout, stderr) => {
+			const code = err ? (typeof err.code === 'number' ? err.code : -1) : 0;
+			resolve({ code, stdout, stderr });
+		});
+	});
+}
+
+const KEYS = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'wheelbase_change', 'fvic', 'fvsa', 'rc_height', 'svic', 'anti_dive', 'anti_squat', 'camber_ground', 'motion_ratio', 'wheel_centre', 'contact_patch'];
+const tmp = mkdtempSync(join(tmpdir(), 'linkwright-cli-'));
+
+/** Write a corner (or raw text) to a temporary file; returns its path. */
+function tempFile(name: string, content: unknown): string {
+	const p = join(tmp, name);
+	writeFileSync(p, typeof content === 'string' ? content : JSON.stringify(content));
+	return p;
+}
+
+describe.concurrent('solve command', { timeout: 180_000 }, () => {
+	it('heave defaults: -50…50 by 5, contract JSON, every key present, nulls kept, no NaN', async ({ expect }) => {
+		const r = await solve('fixtures/club-fwd-front-left.json');
+		expect(r.code).toBe(0);
+		expect(r.stdout).not.toMatch(/NaN|Infinity/);
+		const out = JSON.parse(r.stdout);
+		expect(out.format).toBe('corner-solve/1');
+		expect(out.sweep).toBe('heave');
+		expect(out.kind).toBe('double_wishbone');
+		expect(out.error).toBeUndefined();
+		expect(out.samples.map((s: { travel: number }) => s.travel)).toEqual(Array.from({ length: 21 }, (_, k) => -50 + 5 * k));
+		for (const s of out.samples) {
+			for (const k of KEYS) expect(s).toHaveProperty(k);
+			expect(s.anti_squat).toBeNull();
+			expect(s.camber_ground).toBeNull();
+			expect(s).not.toHaveProperty('points');
+		}
+	});
+
+	it('roll and steer defaults: -3…3 by 0.5 and -40…40 by 5, keyed roll / rack', async ({ expect }) => {
+		const [roll, steer] = await Promise.all([
+			solve('fixtures/road-strut-front-left.json', '--sweep', 'roll'),
+			solve('fixtures/road-strut-front-left.json', '--sweep', 'steer')
+		]);
+		expect(roll.code).toBe(0);
+		expect(steer.code).toBe(0);
+		const r = JSON.parse(roll.stdout);
+		const s = JSON.parse(steer.stdout);
+		expect(r.kind).toBe('strut');
+		expect(r.samples.map((x: { roll: number }) => x.roll)).toEqual(Array.from({ length: 13 }, (_, k) => -3 + 0.5 * k));
+		expect(s.samples.map((x: { rack: number }) => x.rack)).toEqual(Array.from({ length: 17 }, (_, k) => -40 + 5 * k));
+		expect(r.samples.every((x: { camber_ground: number | null; rc_height: number | null }) => x.camber_ground !== null && x.rc_height === null)).toBe(true);
+	});
+
+	it('an option left out takes its default; --to included only on the grid; ascending', async ({ expect }) => {
+		const [a, b, c] = await Promise.all([
+			solve('fixtures/club-fwd-front-left.json', '--from', '0', '--to', '10', '--step', '2.5'),
+			solve('fixtures/club-fwd-front-left.json', '--from', '0', '--to', '10', '--step', '3'),
+			solve('fixtures/club-fwd-front-left.json', '--from', '20')
+		]);
+		expect(JSON.parse(a.stdout).samples.map((s: { travel: number }) => s.travel)).toEqual([0, 2.5, 5, 7.5, 10]);
+		expect(JSON.parse(b.stdout).samples.map((s: { travel: number }) => s.travel)).toEqual([0, 3, 6, 9]);
+		expect(JSON.parse(c.stdout).samples.map((s: { travel: number }) => s.travel)).toEqual([20, 25, 30, 35, 40, 45, 50]);
+	});
+
+	it('exit 1 with one line naming the field: missing point, unknown kind', async ({ expect }) => {
+		const missing = clone(fixture('club-fwd-front-left'));
+		delete missing.points['upper.outer'];
+		const kind = { ...clone(fixture('club-fwd-front-left')), kind: 'swing_axle' };
+		const [m, k] = await Promise.all([solve(tempFile('missing.json', missing)), solve(tempFile('kind.json', kind))]);
+		expect(m.code).toBe(1);
+		expect(m.stderr).toBe('points.upper.outer: missing\n');
+		expect(k.code).toBe(1);
+		expect(k.stderr.trim().split('\n')).toHaveLength(1);
+		expect(k.stderr).toMatch(/^kind: /);
+		expect(m.stdout).toBe('');
+	});
+
+	it('exit 1 for bad options, bad JSON and an unreadable file', async ({ expect }) => {
+		const runs = await Promise.all([
+			solve('fixtures/club-fwd-front-left.json', '--step', '0'),
+			solve('fixtures/club-fwd-front-left.json', '--from', '10', '--to', '0'),
+			solve('fixtures/club-fwd-front-left.json', '--sweep', 'pitch'),
+			solve('fixtures/club-fwd-front-left.json', '--from', 'abc'),
+			solve(tempFile('bad.json', '{"format": ')),
+			solve(join(tmp, 'does-not-exist.json'))
+		]);
+		for (const r of runs) {
+			expect(r.code).toBe(1);
+			expect(r.stderr.trim().split('\n')).toHaveLength(1);
+		}
+		expect(runs[0].stderr).toMatch(/^--step/);
+		expect(runs[1].stderr).toMatch(/^--from/);
+		expect(runs[4].stderr).toMatch(/not valid JSON/);
+		expect(runs[5].stderr).toMatch(/cannot read/);
+	});
+
+	it('exit 2 when the corner cannot be assembled: link and position named, solved part on stdout', async ({ expect }) => {
+		const r = await solve('fixtures/cannot-assemble.json');
+		expect(r.code).toBe(2);
+		expect(r.stderr).toBe('lower arm: cannot be assembled at travel 30 mm\n');
+		const out = JSON.parse(r.stdout);
+		expect(out.error).toMatchObject({ link: 'lower arm', position: 30, sweep: 'heave' });
+		const t = out.samples.map((s: { travel: number }) => s.travel);
+		expect(t).toEqual(Array.from({ length: 16 }, (_, k) => -50 + 5 * k));
+	});
+
+	it('--help explains the command and exits 0', async ({ expect }) => {
+		const r = await solve('--help');
+		expect(r.code).toBe(0);
+		expect(r.stdout).toMatch(/Usage: npm run -s solve -- FILE/);
+		expect(r.stdout).toMatch(/Exit status/);
+	});
+
+	it('--rack holds the rack in heave; refused with --sweep steer', async ({ expect }) => {
+		const [a, b] = await Promise.all([
+			solve('fixtures/club-fwd-front-left.json', '--rack', '10', '--from', '0', '--to', '0'),
+			solve('fixtures/club-fwd-front-left.json', '--sweep', 'steer', '--rack', '10')
+		]);
+		expect(a.code).toBe(0);
+		expect(Math.abs(JSON.parse(a.stdout).samples[0].toe)).toBeGreaterThan(1);
+		expect(b.code).toBe(1);
+	});
+});
