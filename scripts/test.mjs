@@ -16,7 +16,7 @@ ensureBuild();
 const port = Number(process.env.LW_TEST_PORT ?? 3100);
 const baseUrl = `http://127.0.0.1:${port}`;
 const server = startTestServer(port);
-process.on('exit', () => server.kill('SIGTERM'));
+process.on('exit', () => server.kill('SIGKILL'));
 await waitForHttp(`${baseUrl}/signin`);
 
 const results = path.join(root, 'test-results');

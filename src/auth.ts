@@ -19,6 +19,12 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 		basePath: '/auth',
 		session: { strategy: 'jwt', maxAge: 30 * 24 * 3600 },
 		pages: { signIn: '/signin', error: '/signin' },
+		logger: {
+			// A wrong password is an expected outcome, not a server error worth a stack trace.
+			error(err: Error) {
+				if ((err as Error & { type?: string }).type !== 'CredentialsSignin') console.error(err);
+			}
+		},
 		providers: [
 			Credentials({
 				credentials: { email: { label: 'E-mail' }, password: { label: 'Password', type: 'password' } },

@@ -1,4 +1,5 @@
 import { fail, redirect } from '@sveltejs/kit';
+import { CredentialsSignin } from '@auth/sveltekit';
 import { signIn } from '../../auth';
 import { signInInput } from '$lib/schemas/auth';
 import { parseForm } from '$lib/server/forms';
@@ -27,7 +28,13 @@ export const actions: Actions = {
 		const form = await event.request.clone().formData();
 		const parsed = parseForm(form, signInInput);
 		if (!parsed.ok) return fail(400, { errors: parsed.errors, values: parsed.values });
-		// Auth.js checks the password and sets the session cookie, then redirects.
-		await signIn(event);
+		try {
+			// Auth.js checks the password, sets the session cookie and redirects.
+			await signIn(event);
+		} catch (err) {
+			if (!(err instanceof CredentialsSignin)) throw err;
+			const message = MESSAGES[err.code] ?? MESSAGES.credentials;
+			return fail(400, { errors: { form: message }, values: parsed.values });
+		}
 	}
 };

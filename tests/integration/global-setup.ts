@@ -1,0 +1,22 @@
+// Integration tests talk to the built app over HTTP and to the test database directly.
+// `npm test` starts the app and sets LW_TEST_BASE_URL; run alone, this starts it (the build and database must exist).
+import type { ChildProcess } from 'node:child_process';
+
+let server: ChildProcess | null = null;
+
+export async function setup() {
+	if (process.env.LW_TEST_BASE_URL) return;
+	const { startTestServer } = await import('../../scripts/test-server.mjs');
+	const { waitForHttp } = await import('../../scripts/setup.mjs');
+	const port = 3150;
+	server = startTestServer(port);
+	process.env.LW_TEST_BASE_URL = `http://127.0.0.1:${port}`;
+	await waitForHttp(`${process.env.LW_TEST_BASE_URL}/signin`);
+}
+
+export async function teardown() {
+	if (!server) return;
+	const exited = new Promise((resolve) => server!.once('exit', resolve));
+	server.kill('SIGKILL');
+	await exited;
+}
