@@ -45,6 +45,8 @@ export interface MeasureContext {
 }
 
 const C = vec3();
+/** sine of the contract's 1e-9 rad parallel tolerance, computed once */
+const SIN_PARALLEL = Math.sin(PARALLEL_TOL_RAD);
 const line = new Float64Array(6);
 const hit = new Float64Array(2);
 
@@ -174,7 +176,7 @@ function meet(): boolean {
 	const n2 = Math.sqrt(a2 * a2 + b2 * b2);
 	if (!(n1 > TINY) || !(n2 > TINY)) return false;
 	const det = a1 * b2 - a2 * b1;
-	if (Math.abs(det) / (n1 * n2) < Math.sin(PARALLEL_TOL_RAD)) return false;
+	if (Math.abs(det) < SIN_PARALLEL * n1 * n2) return false;
 	hit[0] = (line[2] * b2 - line[5] * b1) / det;
 	hit[1] = (a1 * line[5] - a2 * line[2]) / det;
 	return true;

@@ -128,10 +128,11 @@ function circleRoot(): boolean {
 		D = 0;
 	}
 	const r = Math.sqrt(D);
-	const c1 = (A * C - B * r) / M2;
-	const s1 = (B * C + A * r) / M2;
-	const c2 = (A * C + B * r) / M2;
-	const s2 = (B * C - A * r) / M2;
+	const k = 1 / M2;
+	const c1 = (A * C - B * r) * k;
+	const s1 = (B * C + A * r) * k;
+	const c2 = (A * C + B * r) * k;
+	const s2 = (B * C - A * r) * k;
 	const first = c1 * pc + s1 * ps >= c2 * pc + s2 * ps;
 	root[0] = first ? c1 : c2;
 	root[1] = first ? s1 : s2;
