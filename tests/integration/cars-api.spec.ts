@@ -21,7 +21,7 @@ describe('anonymous calls', () => {
 	])('%s %s answers 401 with a JSON error', async (method, path) => {
 		const res = await new Client().json(path, method, method === 'GET' ? undefined : { name: 'x' });
 		expect(res.status).toBe(401);
-		expect(await res.json()).toMatchObject({ code: 'unauthenticated' });
+		expect(await res.json()).toMatchObject({ error: { code: 'unauthenticated' } });
 	});
 });
 
@@ -29,7 +29,7 @@ describe('roles', () => {
 	test('a viewer gets 403 creating a car', async () => {
 		const res = await viewer.json('/api/v1/cars', 'POST', { name: 'Viewer car' });
 		expect(res.status).toBe(403);
-		expect(await res.json()).toMatchObject({ code: 'forbidden' });
+		expect(await res.json()).toMatchObject({ error: { code: 'forbidden' } });
 	});
 
 	test('a viewer gets 403 changing a car', async () => {
@@ -54,14 +54,14 @@ describe('bad input', () => {
 	test('a missing name is refused with 400 naming the field', async () => {
 		const res = await engineer.json('/api/v1/cars', 'POST', { series: 'no name' });
 		expect(res.status).toBe(400);
-		expect(await res.json()).toMatchObject({ code: 'invalid', field: 'name' });
+		expect(await res.json()).toMatchObject({ error: { code: 'invalid', field: 'name', message: 'name: Name is required' } });
 	});
 
 	test('a brake fraction above 1 is refused naming the field, and nothing is saved', async () => {
 		const before = (await (await engineer.fetch('/api/v1/cars')).json()).cars.length;
 		const res = await engineer.json('/api/v1/cars', 'POST', { name: 'Bad', frontBrakeFraction: 1.4 });
 		expect(res.status).toBe(400);
-		expect((await res.json()).field).toBe('frontBrakeFraction');
+		expect((await res.json()).error.field).toBe('frontBrakeFraction');
 		const after = (await (await engineer.fetch('/api/v1/cars')).json()).cars.length;
 		expect(after).toBe(before);
 	});

@@ -1,5 +1,6 @@
-// Small helpers for API v1 handlers: bodies and query strings through zod, errors as JSON.
-import { error, type RequestEvent } from '@sveltejs/kit';
+// API v1 plumbing: bodies and query strings through zod, and every failure as JSON
+// `{ "error": { "code", "message", "field"? } }` whatever the client's Accept header.
+import { error, isHttpError, json, type RequestEvent, type RequestHandler } from '@sveltejs/kit';
 import type { z } from 'zod';
 
 /** The first problem of a zod error as a field path and a message. */
@@ -10,8 +11,8 @@ export function firstIssue(err: z.ZodError): { field: string; message: string } 
 }
 
 /** Stops with 400 naming the field. */
-export function invalid(field: string, message: string): never {
-	error(400, { message: field ? `${field}: ${message}` : message, code: 'invalid', field });
+export function invalid(field: string, message: string, code = 'invalid'): never {
+	error(400, { message: field && !message.startsWith(field) ? `${field}: ${message}` : message, code, field });
 }
 
 /** Parses the JSON body with a schema, or stops with 400 naming the field. */
@@ -20,8 +21,13 @@ export async function parseBody<T extends z.ZodType>(event: RequestEvent, schema
 	try {
 		raw = await event.request.json();
 	} catch {
-		invalid('', 'The body must be JSON');
+		invalid('', 'The body must be JSON', 'invalid_json');
 	}
+	return parseWith(schema, raw);
+}
+
+/** Parses a value with a schema, or stops with 400 naming the field. */
+export function parseWith<T extends z.ZodType>(schema: T, raw: unknown): z.infer<T> {
 	const result = schema.safeParse(raw);
 	if (!result.success) {
 		const { field, message } = firstIssue(result.error);
@@ -32,10 +38,23 @@ export async function parseBody<T extends z.ZodType>(event: RequestEvent, schema
 
 /** Parses the query string with a schema, or stops with 400 naming the parameter. */
 export function parseQuery<T extends z.ZodType>(event: RequestEvent, schema: T): z.infer<T> {
-	const result = schema.safeParse(Object.fromEntries(event.url.searchParams));
-	if (!result.success) {
-		const { field, message } = firstIssue(result.error);
-		invalid(field, message);
-	}
-	return result.data;
+	return parseWith(schema, Object.fromEntries(event.url.searchParams));
+}
+
+/** The JSON error response of API v1. */
+export function errorResponse(status: number, body: App.Error) {
+	const { message, code = status === 404 ? 'not_found' : 'error', field } = body;
+	return json({ error: { code, message, ...(field ? { field } : {}) } }, { status });
+}
+
+/** Wraps an API handler so that thrown errors answer in the API's JSON error shape. */
+export function endpoint<E extends RequestEvent>(handler: (event: E) => Promise<Response> | Response) {
+	return (async (event: E) => {
+		try {
+			return await handler(event);
+		} catch (e) {
+			if (isHttpError(e)) return errorResponse(e.status, e.body);
+			throw e;
+		}
+	}) as unknown as RequestHandler & ((event: E) => Promise<Response>);
 }

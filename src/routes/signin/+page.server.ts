@@ -34,7 +34,7 @@ export const actions: Actions = {
 		} catch (err) {
 			if (!(err instanceof CredentialsSignin)) throw err;
 			const message = MESSAGES[err.code] ?? MESSAGES.credentials;
-			return fail(400, { errors: { form: message }, values: parsed.values });
+			return fail(400, { errors: { form: message }, values: { email: parsed.data.email } });
 		}
 	}
 };

@@ -1,18 +1,18 @@
 import { json } from '@sveltejs/kit';
 import { carPatch } from '$lib/schemas/car';
-import { parseBody } from '$lib/server/api';
+import { endpoint, parseBody } from '$lib/server/api';
 import { db } from '$lib/server/db';
 import { recordAudit } from '$lib/server/db/queries/audit';
 import { updateCar } from '$lib/server/db/queries/cars';
 import { requireCar } from '$lib/server/permissions';
-import type { RequestHandler } from './$types';
+import type { RequestEvent } from './$types';
 
-export const GET: RequestHandler = async (event) => {
+export const GET = endpoint<RequestEvent>(async (event) => {
 	const { car } = await requireCar(event, event.params.carId, 'view');
 	return json(car);
-};
+});
 
-export const PATCH: RequestHandler = async (event) => {
+export const PATCH = endpoint<RequestEvent>(async (event) => {
 	const { car } = await requireCar(event, event.params.carId, 'edit');
 	const patch = await parseBody(event, carPatch);
 	const updated = await updateCar(db, car.id, patch);
@@ -25,4 +25,4 @@ export const PATCH: RequestHandler = async (event) => {
 		detail: { fields: Object.keys(patch) }
 	});
 	return json(updated);
-};
+});
