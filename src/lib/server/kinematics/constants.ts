@@ -8,6 +8,10 @@
 export const LINEAR_FINISH_MM = 1e-4;
 /** Newton iterations allowed per position before the position is declared unreachable. */
 export const NEWTON_MAX_ITER = 60;
+/** When a position fails, θ is walked from the last solution in steps of this (rad) to name the link. */
+export const DIAGNOSE_STEP_RAD = 0.001;
+/** ... for at most this many steps (about 60°). */
+export const DIAGNOSE_STEPS = 1000;
 /** A derivative smaller than this (mm per rad) means the driver cannot move the linkage. */
 export const DRIVER_SLOPE_MIN = 1e-9;
 /** Lines whose directions differ by less than this (rad) are parallel (contract: 1e-9 rad). */

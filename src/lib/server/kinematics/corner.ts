@@ -62,8 +62,11 @@ export interface CornerModel {
 	upper: ArmCircle;
 	/** design lower.outer, mm */
 	L0: Vec3;
-	/** double wishbone: design upper.outer − lower.outer, mm */
+	/** double wishbone: design upper.outer − lower.outer, mm, and as a unit vector */
 	bodyU: Vec3;
+	bodyUnitU: Vec3;
+	/** squared radius of the upper ball joint's circle, mm² */
+	upperRadius2: number;
 	/** strut: strut.top (chassis), mm */
 	strutTop: Vec3;
 	/** strut: body vector strut.lower − lower.outer, mm */
@@ -188,6 +191,8 @@ function build(input: CornerInput, need: (n: string) => Vec3): CornerModel {
 		upper: noCircle(),
 		L0,
 		bodyU: vec3(),
+		bodyUnitU: vec3(),
+		upperRadius2: 0,
 		strutTop: vec3(),
 		bodySL: vec3(),
 		strutAxis0: vec3(),
@@ -225,6 +230,8 @@ function buildWishbone(m: CornerModel, need: (n: string) => Vec3): void {
 	sub(m.bodyU, U0, m.L0);
 	m.kingpinLength = len(m.bodyU);
 	if (m.kingpinLength <= ZERO_LENGTH_MM) fault('points.upper.outer', 'coincides with lower.outer');
+	normalize(m.bodyUnitU, m.bodyU, 0);
+	m.upperRadius2 = dot(upper.r, upper.r);
 }
 
 /** Strut top mount and the strut axis fixed in the upright. */

@@ -5,7 +5,7 @@
 // steering axis until the tie rod fits. A sweep's driving condition is then one equation
 // in θ, solved by Newton's method with the analytic derivative from a velocity analysis.
 
-import { ASSEMBLY_SLACK, DRIVER_SLOPE_MIN, LINEAR_FINISH_MM, NEWTON_MAX_ITER, TINY } from './constants';
+import { ASSEMBLY_SLACK, DIAGNOSE_STEP_RAD, DIAGNOSE_STEPS, DRIVER_SLOPE_MIN, LINEAR_FINISH_MM, NEWTON_MAX_ITER, TINY } from './constants';
 import {
 	KIND_STRUT,
 	SPRING_LOWER,
@@ -145,7 +145,7 @@ function placeUpper(m: CornerModel, ref: Branch, p: Pose): number {
 	const Dx = u.c[0] - p.L[0];
 	const Dy = u.c[1] - p.L[1];
 	const Dz = u.c[2] - p.L[2];
-	const rr = (u.r[0] * u.r[0] + u.r[1] * u.r[1] + u.r[2] * u.r[2]);
+	const rr = m.upperRadius2;
 	const A = 2 * (Dx * u.r[0] + Dy * u.r[1] + Dz * u.r[2]);
 	const B = 2 * (Dx * u.s[0] + Dy * u.s[1] + Dz * u.s[2]);
 	const C = m.kingpinLength * m.kingpinLength - (Dx * Dx + Dy * Dy + Dz * Dz) - rr;
@@ -245,19 +245,19 @@ export function evalPose(m: CornerModel, ref: Branch, p: Pose): number {
 	const code = strut ? placeStrut(m, ref, p) : placeUpper(m, ref, p);
 	if (code !== OK) return code;
 	if (!strut) {
-		const kl = m.kingpinLength;
-		uhat[0] = m.bodyU[0] / kl;
-		uhat[1] = m.bodyU[1] / kl;
-		uhat[2] = m.bodyU[2] / kl;
+		uhat[0] = m.bodyUnitU[0];
+		uhat[1] = m.bodyUnitU[1];
+		uhat[2] = m.bodyUnitU[2];
 	}
 	vhat[0] = p.K[0] - p.L[0];
 	vhat[1] = p.K[1] - p.L[1];
 	vhat[2] = p.K[2] - p.L[2];
 	const vl = Math.sqrt(vhat[0] * vhat[0] + vhat[1] * vhat[1] + vhat[2] * vhat[2]);
 	if (!(vl > TINY)) return strut ? FAIL_STRUT : FAIL_UPPER;
-	vhat[0] /= vl;
-	vhat[1] /= vl;
-	vhat[2] /= vl;
+	const iv = 1 / vl;
+	vhat[0] *= iv;
+	vhat[1] *= iv;
+	vhat[2] *= iv;
 	if (!minimalRotation(rMin, uhat, vhat)) return strut ? FAIL_STRUT : FAIL_UPPER;
 	const tie = closeTieRod(m, ref, p);
 	if (tie !== OK) return tie;
@@ -444,7 +444,30 @@ export function solvePosition(m: CornerModel, ref: Branch, d: Driver, p: Pose): 
 		good = theta;
 		theta += dTheta;
 	}
-	return lastFail;
+	return diagnose(m, ref, d, p, lastFail);
+}
+
+/**
+ * Name the link that stops a position Newton could not reach, independently of Newton's path:
+ * walk θ from the last solved angle toward the target until a link fails to assemble (that
+ * link) or the driver turns back (the lower arm has reached the end of its travel).
+ */
+function diagnose(m: CornerModel, ref: Branch, d: Driver, p: Pose, fallback: number): number {
+	p.branch.theta = ref.theta;
+	let code = evalPose(m, ref, p);
+	if (code !== OK) return code;
+	if (!p.velocityOk) return p.velocityFail;
+	if (!driverResidual(m, d, p, residual) || residual[1] === 0) return fallback;
+	const dir = -Math.sign(residual[0] * residual[1]);
+	const slope0 = residual[1];
+	for (let k = 1; k <= DIAGNOSE_STEPS; k++) {
+		p.branch.theta = ref.theta + dir * k * DIAGNOSE_STEP_RAD;
+		code = evalPose(m, ref, p);
+		if (code !== OK) return code;
+		if (!p.velocityOk) return p.velocityFail;
+		if (!driverResidual(m, d, p, residual) || residual[1] * slope0 <= 0) return FAIL_LOWER;
+	}
+	return fallback;
 }
 
 /** Move pose p by p.step (rad of θ) along its velocity: the final Newton step, to first order. */
