@@ -26,7 +26,7 @@ function gcFunction(): () => void {
 
 /** Median wall time (µs) of one 161-position sweep with all measures, into reused buffers. */
 function sweepMedianUs(solver: CornerSolver): number {
-	for (let i = 0; i < 500; i++) solver.run(SWEEP); // warm up the JIT
+	for (let i = 0; i < 3000; i++) solver.run(SWEEP); // warm up the JIT (all tiers)
 	const times: number[] = [];
 	for (let i = 0; i < 3000; i++) {
 		const t0 = performance.now();

@@ -5,7 +5,7 @@
 
 import { readFileSync } from 'node:fs';
 import { parseCornerGeometry, SWEEP_DEFAULTS } from '../src/lib/schemas/geometry';
-import { CornerGeometryError, solveSweep, type SweepKind, type SweepResult } from '../src/lib/server/kinematics/index';
+import { CornerGeometryError, solveSweep, SweepOptionsError, type SweepKind, type SweepResult } from '../src/lib/server/kinematics/index';
 
 const HELP = `Usage: npm run -s solve -- FILE [--sweep heave|roll|steer] [--from A --to B --step S] [--rack R] [--points]
 
@@ -131,6 +131,7 @@ function main(): void {
 		result = solveSweep(corner, { sweep: args.sweep, from, to, step, rack: args.rack, points: args.points });
 	} catch (e) {
 		if (e instanceof CornerGeometryError) fail(1, e.message);
+		if (e instanceof SweepOptionsError) fail(1, `--${e.message}`);
 		throw e;
 	}
 	const out: Record<string, unknown> = { format: 'corner-solve/1', sweep: args.sweep, kind: corner.kind, samples: result.samples };

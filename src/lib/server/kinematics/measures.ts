@@ -50,11 +50,6 @@ const SIN_PARALLEL = Math.sin(PARALLEL_TOL_RAD);
 const line = new Float64Array(6);
 const hit = new Float64Array(2);
 
-/** atan2(y, x) (rad), through the cheaper atan when x > 0, where the two agree. */
-function angleOf(y: number, x: number): number {
-	return x > 0 ? Math.atan(y / x) : Math.atan2(y, x);
-}
-
 /** Mark out[i] present when finite, else null (0 stored); takes no number argument, so none is boxed. */
 function mark(out: Float64Array, has: Uint8Array, i: number): void {
 	if (Number.isFinite(out[i])) has[i] = 1;
@@ -89,14 +84,16 @@ export function computeMeasures(
 	const camber = -Math.asin(az);
 	out[o + F_CAMBER] = camber;
 	mark(out, has, o + F_CAMBER);
-	out[o + F_TOE] = angleOf(p.a[0], Math.abs(p.a[1]));
+	// atan2(y, x) through the cheaper atan where x > 0 (the two agree there)
+	const ay0 = Math.abs(p.a[1]);
+	out[o + F_TOE] = ay0 > 0 ? Math.atan(p.a[0] / ay0) : Math.atan2(p.a[0], ay0);
 	mark(out, has, o + F_TOE);
 	const ax = p.K[0] - p.L[0];
 	const ay = p.K[1] - p.L[1];
 	const azz = p.K[2] - p.L[2];
-	out[o + F_CASTER] = angleOf(-ax, azz);
+	out[o + F_CASTER] = azz > 0 ? Math.atan(-ax / azz) : Math.atan2(-ax, azz);
 	mark(out, has, o + F_CASTER);
-	out[o + F_KPI] = angleOf(-s * ay, azz);
+	out[o + F_KPI] = azz > 0 ? Math.atan((-s * ay) / azz) : Math.atan2(-s * ay, azz);
 	mark(out, has, o + F_KPI);
 	groundPoint(p, ctx.n, out, has, o, s);
 	out[o + F_HALF_TRACK] = s * (C[1] - m.contact0[1]);
