@@ -2,6 +2,7 @@
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { db } from '$lib/server/db';
 import { carForUser } from '$lib/server/db/queries/cars';
+import { cornerForUser, revisionForUser } from '$lib/server/db/queries/corners';
 import type { Role } from '$lib/server/db/schema';
 import type { TeamRole } from '$lib/server/db/queries/users';
 
@@ -56,6 +57,24 @@ export async function requireCar(event: RequestEvent, carId: string, action: Act
 	const user = requireUser(event);
 	const found = await carForUser(db, user.id, carId);
 	if (!found) notFound('Car not found');
+	if (!can(found.role, action)) forbid(action);
+	return found;
+}
+
+/** A corner (with its car) the caller may act on; 404 / 403 as for cars. */
+export async function requireCorner(event: RequestEvent, cornerId: string, action: Action) {
+	const user = requireUser(event);
+	const found = await cornerForUser(db, user.id, cornerId);
+	if (!found) notFound('Corner not found');
+	if (!can(found.role, action)) forbid(action);
+	return found;
+}
+
+/** A revision (with its corner and car) the caller may act on; 404 / 403 as for cars. */
+export async function requireRevision(event: RequestEvent, revisionId: string, action: Action) {
+	const user = requireUser(event);
+	const found = await revisionForUser(db, user.id, revisionId);
+	if (!found) notFound('Revision not found');
 	if (!can(found.role, action)) forbid(action);
 	return found;
 }

@@ -27,16 +27,20 @@ export function span(points: Vec3[]): number {
 	return best;
 }
 
+/** Unit names for messages. */
+const UNIT_NAMES: Record<LengthUnit, string> = { mm: 'millimetres', cm: 'centimetres', m: 'metres', in: 'inches' };
+
 /** A warning when the span (file units) does not fit one corner in `unit`, naming units that would; null if fine. */
 export function spanWarning(points: Vec3[], unit: LengthUnit): string | null {
 	const s = span(points);
 	if (points.length < 2 || s === 0) return null;
 	const mm = s * MM_PER_UNIT[unit];
 	if (mm >= IMPORT_LIMITS.minSpanMm && mm <= IMPORT_LIMITS.maxSpanMm) return null;
-	const fits = UNITS.filter((u) => u !== unit && inside(s * MM_PER_UNIT[u]));
-	const hint = fits.length ? `; as ${fits.join(' or ')} it would be ${fits.map((u) => fmt(s * MM_PER_UNIT[u])).join(' or ')}` : '';
 	const what = mm < IMPORT_LIMITS.minSpanMm ? 'too small' : 'too large';
-	return `the points span ${fmt(mm)} in ${unit}, ${what} for one corner: is the unit really ${unit}${hint}?`;
+	const fits = UNITS.filter((u) => u !== unit && inside(s * MM_PER_UNIT[u]));
+	const hint = fits.map((u, i) => `${i ? 'as' : 'read as'} ${UNIT_NAMES[u]} ${i ? '' : 'they would span '}${fmt(s * MM_PER_UNIT[u])}`);
+	const tail = hint.length ? `; ${hint.join(', ')}` : '';
+	return `the points span ${fmt(mm)} read as ${UNIT_NAMES[unit]}, ${what} for one corner${tail}: check the unit`;
 }
 
 /** True when a span (mm) is plausible for one corner. */

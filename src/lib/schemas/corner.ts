@@ -1,0 +1,67 @@
+// Corner and revision inputs, shared by forms, API v1 and the client.
+import { z } from 'zod';
+import { cornerGeometrySchema, SWEEP_DEFAULTS } from './geometry';
+
+export const CORNER_POSITIONS = ['front_left', 'front_right', 'rear_left', 'rear_right'] as const;
+export type CornerPosition = (typeof CORNER_POSITIONS)[number];
+
+export const POSITION_LABELS: Record<CornerPosition, string> = {
+	front_left: 'Front left',
+	front_right: 'Front right',
+	rear_left: 'Rear left',
+	rear_right: 'Rear right'
+};
+
+export const KIND_LABELS = { double_wishbone: 'Double wishbone', strut: 'Strut' } as const;
+
+export const cornerInput = z.object({
+	position: z.enum(CORNER_POSITIONS, { message: 'position must be front_left, front_right, rear_left or rear_right' }),
+	kind: z.enum(['double_wishbone', 'strut'], { message: 'kind must be double_wishbone or strut' })
+});
+
+export const revisionInput = z.object({
+	label: z.string().trim().max(120, 'label is at most 120 characters').default(''),
+	note: z.string().max(5000, 'note is at most 5000 characters').default(''),
+	parentId: z.string().uuid('parentId must be a revision id').nullable().optional(),
+	geometry: cornerGeometrySchema
+});
+
+const num = (name: string) =>
+	z.preprocess(
+		(v) => (v === undefined || v === '' ? undefined : typeof v === 'string' ? Number(v) : v),
+		z.number({ message: `${name} must be a number` }).refine(Number.isFinite, `${name} must be a number`).optional()
+	);
+
+/** Sweep settings from a query string or a body; missing values take the contract's defaults. */
+export const sweepQuery = z
+	.object({
+		sweep: z.enum(['heave', 'roll', 'steer'], { message: "sweep must be 'heave', 'roll' or 'steer'" }).default('heave'),
+		from: num('from'),
+		to: num('to'),
+		step: num('step'),
+		rack: num('rack'),
+		points: z.preprocess((v) => v === true || v === 'true' || v === '1', z.boolean()).optional()
+	})
+	.transform((q) => {
+		const d = SWEEP_DEFAULTS[q.sweep];
+		return { sweep: q.sweep, from: q.from ?? d.from, to: q.to ?? d.to, step: q.step ?? d.step, rack: q.rack, points: q.points };
+	})
+	.refine((q) => q.step > 0, { path: ['step'], message: 'step must be > 0' })
+	.refine((q) => q.from <= q.to, { path: ['from'], message: 'from must be <= to' })
+	.refine((q) => (q.to - q.from) / q.step <= 2000, { path: ['step'], message: 'at most 2000 positions per sweep' });
+
+export type SweepQuery = z.infer<typeof sweepQuery>;
+
+/** The body of POST /api/v1/solve: a corner file and sweep settings. */
+export const solveBody = z
+	.object({ geometry: cornerGeometrySchema })
+	.passthrough()
+	.transform((b, ctx) => {
+		const { geometry, ...rest } = b;
+		const q = sweepQuery.safeParse(rest);
+		if (!q.success) {
+			for (const issue of q.error.issues) ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
+			return z.NEVER;
+		}
+		return { geometry, options: q.data };
+	});

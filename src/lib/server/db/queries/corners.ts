@@ -1,0 +1,155 @@
+// Corners and their immutable revisions, reached through the caller's memberships.
+import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import type { Database } from '../connect';
+import { createHash } from 'node:crypto';
+import { cars, corners, memberships, revisions, uploads, users, type Corner } from '../schema';
+
+/** A car's corners in a fixed order with their newest revision number and baseline. */
+export function cornersOfCar(db: Database, carId: string) {
+	return db
+		.select({
+			id: corners.id,
+			position: corners.position,
+			kind: corners.kind,
+			baselineRevisionId: corners.baselineRevisionId,
+			revisionCount: sql<number>`(select count(*)::int from ${revisions} where ${revisions.cornerId} = ${corners.id})`,
+			latestNumber: sql<number | null>`(select max(${revisions.number}) from ${revisions} where ${revisions.cornerId} = ${corners.id})`
+		})
+		.from(corners)
+		.where(eq(corners.carId, carId))
+		.orderBy(asc(corners.position));
+}
+
+/** Creates a corner on a car; null when the car already has one at that position. */
+export async function createCorner(db: Database, carId: string, position: Corner['position'], kind: Corner['kind']) {
+	const [row] = await db.insert(corners).values({ carId, position, kind }).onConflictDoNothing().returning();
+	return row ?? null;
+}
+
+/** The corner (with its car) if the user is a member of its team, with the user's role; else null. */
+export async function cornerForUser(db: Database, userId: string, cornerId: string) {
+	const [row] = await db
+		.select({ corner: corners, car: cars, role: memberships.role })
+		.from(corners)
+		.innerJoin(cars, eq(cars.id, corners.carId))
+		.innerJoin(memberships, and(eq(memberships.teamId, cars.teamId), eq(memberships.userId, userId)))
+		.where(eq(corners.id, cornerId))
+		.limit(1);
+	return row ?? null;
+}
+
+/** The revision (with corner and car) if the user is a member of its team, with the user's role; else null. */
+export async function revisionForUser(db: Database, userId: string, revisionId: string) {
+	const [row] = await db
+		.select({ revision: revisions, corner: corners, car: cars, role: memberships.role })
+		.from(revisions)
+		.innerJoin(corners, eq(corners.id, revisions.cornerId))
+		.innerJoin(cars, eq(cars.id, corners.carId))
+		.innerJoin(memberships, and(eq(memberships.teamId, cars.teamId), eq(memberships.userId, userId)))
+		.where(eq(revisions.id, revisionId))
+		.limit(1);
+	return row ?? null;
+}
+
+/** A corner's revisions, newest first, with the author's name (no geometry). */
+export function revisionsOfCorner(db: Database, cornerId: string) {
+	return db
+		.select({
+			id: revisions.id,
+			number: revisions.number,
+			label: revisions.label,
+			note: revisions.note,
+			kind: revisions.kind,
+			parentId: revisions.parentId,
+			createdAt: revisions.createdAt,
+			authorName: users.name
+		})
+		.from(revisions)
+		.leftJoin(users, eq(users.id, revisions.authorId))
+		.where(eq(revisions.cornerId, cornerId))
+		.orderBy(desc(revisions.number));
+}
+
+/** A revision of a corner by id (with geometry), or null. */
+export async function revisionOfCorner(db: Database, cornerId: string, revisionId: string) {
+	const [row] = await db
+		.select()
+		.from(revisions)
+		.where(and(eq(revisions.cornerId, cornerId), eq(revisions.id, revisionId)))
+		.limit(1);
+	return row ?? null;
+}
+
+/** The newest revision of a corner (with geometry), or null. */
+export async function latestRevision(db: Database, cornerId: string) {
+	const [row] = await db
+		.select()
+		.from(revisions)
+		.where(eq(revisions.cornerId, cornerId))
+		.orderBy(desc(revisions.number))
+		.limit(1);
+	return row ?? null;
+}
+
+export interface NewUpload {
+	teamId: string;
+	filename: string;
+	contentType: string;
+	bytes: Buffer;
+	createdBy: string | null;
+}
+
+export interface NewRevision {
+	cornerId: string;
+	kind: Corner['kind'];
+	geometry: Record<string, unknown>;
+	label: string;
+	note: string;
+	parentId: string | null;
+	authorId: string | null;
+}
+
+const UNIQUE_VIOLATION = '23505';
+
+/** True for the unique-number race between two saves of one corner. */
+function isNumberRace(e: unknown) {
+	const cause = (e as { cause?: { code?: string; constraint_name?: string } }).cause ?? (e as { code?: string; constraint_name?: string });
+	return cause?.code === UNIQUE_VIOLATION && cause.constraint_name === 'revisions_corner_number_key';
+}
+
+/**
+ * Appends a revision with the next number, and the original upload it came from if any, in one
+ * transaction. Two saves at once both succeed: the loser of the unique-number race takes the next number.
+ */
+export async function appendRevision(db: Database, input: NewRevision, upload?: NewUpload) {
+	for (let attempt = 0; ; attempt++) {
+		try {
+			return await db.transaction(async (tx) => {
+				const [row] = await tx
+					.insert(revisions)
+					.values({
+						...input,
+						number: sql`(select coalesce(max(${revisions.number}), 0) + 1 from ${revisions} where ${revisions.cornerId} = ${input.cornerId})`
+					})
+					.returning();
+				if (upload) {
+					const sha256 = createHash('sha256').update(upload.bytes).digest('hex');
+					await tx.insert(uploads).values({ ...upload, revisionId: row.id, sizeBytes: upload.bytes.length, sha256 });
+				}
+				return row;
+			});
+		} catch (e) {
+			if (!isNumberRace(e) || attempt >= 20) throw e;
+		}
+	}
+}
+
+/** Points the corner's baseline at one of its revisions (revisions themselves never change). */
+export async function setBaseline(db: Database, cornerId: string, revisionId: string | null) {
+	await db.update(corners).set({ baselineRevisionId: revisionId }).where(eq(corners.id, cornerId));
+}
+
+/** The revision's corner kind is also the corner's; keep the corner row in step when a revision changes kind. */
+export async function setCornerKind(db: Database, cornerId: string, kind: Corner['kind']) {
+	await db.update(corners).set({ kind }).where(eq(corners.id, cornerId));
+}

@@ -1,0 +1,22 @@
+import { z } from 'zod';
+import { endpoint, parseQuery } from '$lib/server/api';
+import { fileName, pointsCsv } from '$lib/server/corners/present';
+import { requireRevision } from '$lib/server/permissions';
+import type { RequestEvent } from './$types';
+
+const query = z.object({ format: z.enum(['geometry', 'csv'], { message: "format must be 'geometry' or 'csv'" }).default('geometry') });
+
+// Downloads a revision as its corner file (corner-geometry/1, importable unchanged) or as CSV.
+export const GET = endpoint<RequestEvent>(async (event) => {
+	const { revision, corner, car } = await requireRevision(event, event.params.revisionId, 'view');
+	const { format } = parseQuery(event, query);
+	const base = fileName(car.name, corner.position, `r${revision.number}`);
+	const geometry = revision.geometry as { points: Record<string, [number, number, number]> };
+	const [body, type, ext] =
+		format === 'csv'
+			? [pointsCsv(geometry), 'text/csv; charset=utf-8', 'csv']
+			: [JSON.stringify(revision.geometry, null, '\t') + '\n', 'application/json', 'json'];
+	return new Response(body, {
+		headers: { 'content-type': type, 'content-disposition': `attachment; filename="${base}.${ext}"` }
+	});
+});

@@ -1,0 +1,75 @@
+import { error, fail, isHttpError } from '@sveltejs/kit';
+import { z } from 'zod';
+import { cornerGeometrySchema, formatIssue } from '$lib/schemas/geometry';
+import { saveRevision, vehicleFromCar } from '$lib/server/corners/revisions';
+import { solveCorner } from '$lib/server/corners/solve';
+import { db } from '$lib/server/db';
+import { latestRevision, revisionOfCorner, revisionsOfCorner, setBaseline } from '$lib/server/db/queries/corners';
+import { recordAudit } from '$lib/server/db/queries/audit';
+import { can, requireCorner } from '$lib/server/permissions';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const { corner, car, role } = await requireCorner(event, event.params.cornerId, 'view');
+	const fromId = event.url.searchParams.get('from');
+	const latest = await latestRevision(db, corner.id);
+	const shown = fromId && z.string().uuid().safeParse(fromId).success ? await revisionOfCorner(db, corner.id, fromId) : latest;
+	if (fromId && !shown) error(404, { message: 'Revision not found', code: 'not_found' });
+	const parsed = shown ? cornerGeometrySchema.safeParse(shown.geometry) : null;
+	const design = parsed?.success ? solveCorner(parsed.data, { sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0] ?? null : null;
+	return {
+		car: { id: car.id, name: car.name },
+		corner,
+		revision: shown,
+		latestNumber: latest?.number ?? 0,
+		revisions: await revisionsOfCorner(db, corner.id),
+		vehicle: vehicleFromCar(car, corner),
+		design,
+		canEdit: can(role, 'edit')
+	};
+};
+
+const saveForm = z.object({
+	geometry: z.string().min(2, 'geometry: missing'),
+	label: z.string().trim().max(120, 'Label is at most 120 characters').default(''),
+	note: z.string().max(5000, 'Note is at most 5000 characters').default(''),
+	parentId: z.string().uuid().optional().or(z.literal('').transform(() => undefined))
+});
+
+export const actions: Actions = {
+	save: async (event) => {
+		const { corner, car } = await requireCorner(event, event.params.cornerId, 'edit');
+		const form = saveForm.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!form.success) return fail(400, { message: formatIssue(form.error), field: null as string | null });
+		let raw: unknown;
+		try {
+			raw = JSON.parse(form.data.geometry);
+		} catch {
+			return fail(400, { message: 'geometry: not valid JSON', field: null });
+		}
+		const geometry = cornerGeometrySchema.safeParse(raw);
+		if (!geometry.success) {
+			return fail(400, { message: formatIssue(geometry.error), field: geometry.error.issues[0]?.path.map(String).join('.') ?? null });
+		}
+		try {
+			const { revision, supersededBy } = await saveRevision({
+				car, corner, userId: event.locals.user!.id, geometry: geometry.data,
+				label: form.data.label, note: form.data.note, parentId: form.data.parentId ?? null, source: 'editor'
+			});
+			return { saved: { id: revision.id, number: revision.number, supersededBy } };
+		} catch (e) {
+			if (isHttpError(e) && e.status === 400) return fail(400, { message: e.body.message, field: e.body.field ?? null });
+			throw e;
+		}
+	},
+	baseline: async (event) => {
+		const { corner, car } = await requireCorner(event, event.params.cornerId, 'edit');
+		const revisionId = String((await event.request.formData()).get('revisionId') ?? '');
+		if (!z.string().uuid().safeParse(revisionId).success || !(await revisionOfCorner(db, corner.id, revisionId))) {
+			return fail(400, { message: 'That revision is not one of this corner', field: null });
+		}
+		await setBaseline(db, corner.id, revisionId);
+		await recordAudit(db, { teamId: car.teamId, actorId: event.locals.user!.id, action: 'corner.baseline_set', subjectType: 'corner', subjectId: corner.id, detail: { revisionId } });
+		return { baselineSet: revisionId };
+	}
+};
