@@ -1,0 +1,161 @@
+import { readFileSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { Client, DEMO_CAR_ID, closeDb, freshAccount } from './helpers';
+
+const stock = JSON.parse(readFileSync('fixtures/club-fwd-front-left.json', 'utf8'));
+const right = JSON.parse(readFileSync('fixtures/club-fwd-front-right.json', 'utf8'));
+const engineer = new Client();
+const viewer = new Client();
+let carId = '';
+let cornerId = '';
+
+beforeAll(async () => {
+	await engineer.signIn('engineer@linkwright.test');
+	await viewer.signIn('viewer@linkwright.test');
+	const car = await (await engineer.json('/api/v1/cars', 'POST', { name: 'Revisions API car' })).json();
+	carId = car.id;
+	const corner = await engineer.json(`/api/v1/cars/${carId}/corners`, 'POST', { position: 'front_left', kind: 'double_wishbone' });
+	expect(corner.status).toBe(201);
+	cornerId = (await corner.json()).id;
+});
+afterAll(closeDb);
+
+describe('corners', () => {
+	test('a second corner at the same position is refused naming the field', async () => {
+		const res = await engineer.json(`/api/v1/cars/${carId}/corners`, 'POST', { position: 'front_left', kind: 'strut' });
+		expect(res.status).toBe(400);
+		expect((await res.json()).error).toMatchObject({ field: 'position', code: 'conflict' });
+	});
+
+	test('an unknown kind is refused naming the field', async () => {
+		const res = await engineer.json(`/api/v1/cars/${carId}/corners`, 'POST', { position: 'rear_left', kind: 'trailing_arm' });
+		expect(res.status).toBe(400);
+		expect((await res.json()).error.field).toBe('kind');
+	});
+
+	test('the car lists its corner', async () => {
+		const res = await viewer.fetch(`/api/v1/cars/${carId}/corners`);
+		expect((await res.json()).corners).toEqual([expect.objectContaining({ id: cornerId, position: 'front_left' })]);
+	});
+
+	test('a viewer cannot add a corner', async () => {
+		const res = await viewer.json(`/api/v1/cars/${carId}/corners`, 'POST', { position: 'rear_right', kind: 'strut' });
+		expect(res.status).toBe(403);
+	});
+});
+
+describe('revisions', () => {
+	test('POST answers 201 with id and number, and GET gives back the same corner file', async () => {
+		const res = await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label: 'stock', note: 'as built', geometry: stock });
+		expect(res.status).toBe(201);
+		const { id, number } = await res.json();
+		expect(number).toBe(1);
+		const got = await (await viewer.fetch(`/api/v1/revisions/${id}`)).json();
+		expect(got).toMatchObject({ id, number: 1, label: 'stock', note: 'as built', kind: 'double_wishbone', cornerId, carId });
+		expect(got.geometry.points).toEqual(stock.points);
+	});
+
+	test('two saves from the same parent at once both get a revision with distinct numbers', async () => {
+		const list = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		const parentId = list.revisions[0].id;
+		const post = (label: string) => engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label, parentId, geometry: stock });
+		const results = await Promise.all([post('a'), post('b'), post('c')]);
+		expect(results.map((r) => r.status)).toEqual([201, 201, 201]);
+		const numbers = (await Promise.all(results.map((r) => r.json()))).map((b) => b.number).sort();
+		expect(new Set(numbers).size).toBe(3);
+		const after = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		expect(after.revisions.filter((r: { parentId: string }) => r.parentId === parentId)).toHaveLength(3);
+	});
+
+	test('a corner file that fails the schema is a 400 naming the field, and nothing is saved', async () => {
+		const before = (await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json()).revisions.length;
+		const bad = structuredClone(stock);
+		delete bad.points['upper.outer'];
+		const res = await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { geometry: bad });
+		expect(res.status).toBe(400);
+		expect((await res.json()).error).toMatchObject({ code: 'invalid', field: 'geometry.points.upper.outer' });
+		const after = (await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json()).revisions.length;
+		expect(after).toBe(before);
+	});
+
+	test('a right-hand corner file is refused on a left corner, naming the wheel centre', async () => {
+		const res = await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { geometry: right });
+		expect(res.status).toBe(400);
+		expect((await res.json()).error.field).toBe('geometry.points.wheel.centre');
+	});
+
+	test('a viewer cannot save a revision', async () => {
+		const res = await viewer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { geometry: stock });
+		expect(res.status).toBe(403);
+	});
+
+	test('another team gets 404 for the corner and its revisions', async () => {
+		const { client } = await freshAccount('rev-outsider');
+		const list = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		expect((await client.fetch(`/api/v1/corners/${cornerId}/revisions`)).status).toBe(404);
+		expect((await client.fetch(`/api/v1/revisions/${list.revisions[0].id}`)).status).toBe(404);
+		expect((await client.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { geometry: stock })).status).toBe(404);
+		expect((await client.fetch(`/api/v1/cars/${DEMO_CAR_ID}/corners`)).status).toBe(404);
+	});
+
+	test('the baseline can be set by an engineer, not by a viewer', async () => {
+		const list = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		const first = list.revisions.at(-1).id;
+		expect((await viewer.json(`/api/v1/corners/${cornerId}/baseline`, 'PUT', { revisionId: first })).status).toBe(403);
+		expect((await engineer.json(`/api/v1/corners/${cornerId}/baseline`, 'PUT', { revisionId: first })).status).toBe(200);
+		const after = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		expect(after.baselineRevisionId).toBe(first);
+		expect(after.revisions.find((r: { id: string }) => r.id === first).isBaseline).toBe(true);
+	});
+});
+
+describe('export and solve', () => {
+	test('the exported corner file imports again unchanged', async () => {
+		const list = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		const id = list.revisions.at(-1).id;
+		const exported = await viewer.fetch(`/api/v1/revisions/${id}/export?format=geometry`);
+		expect(exported.headers.get('content-disposition')).toMatch(/attachment; filename=".*\.json"/);
+		const file = await exported.json();
+		const res = await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label: 'round trip', geometry: file });
+		const again = await (await viewer.fetch(`/api/v1/revisions/${(await res.json()).id}/export?format=geometry`)).json();
+		expect(again).toEqual(file);
+	});
+
+	test('the CSV export lists every point in mm', async () => {
+		const list = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		const csv = await (await viewer.fetch(`/api/v1/revisions/${list.revisions.at(-1).id}/export?format=csv`)).text();
+		const lines = csv.trim().split(/\r\n/);
+		expect(lines[0]).toBe('point,x_mm,y_mm,z_mm');
+		expect(lines).toContain(`lower.outer,${stock.points['lower.outer'].join(',')}`);
+		expect(lines).toHaveLength(1 + Object.keys(stock.points).length);
+	});
+
+	test('GET …/solve answers corner-solve/1 with the default heave sweep', async () => {
+		const list = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		const body = await (await viewer.fetch(`/api/v1/revisions/${list.revisions.at(-1).id}/solve`)).json();
+		expect(body).toMatchObject({ format: 'corner-solve/1', sweep: 'heave', kind: 'double_wishbone' });
+		expect(body.samples.map((s: { travel: number }) => s.travel)).toEqual(Array.from({ length: 21 }, (_, i) => -50 + 5 * i));
+	});
+
+	test('POST /solve solves an unsaved corner and names a bad sweep field', async () => {
+		const ok = await viewer.json('/api/v1/solve', 'POST', { geometry: stock, sweep: 'roll', from: -1, to: 1, step: 1 });
+		expect(ok.status).toBe(200);
+		const body = await ok.json();
+		expect(body.samples.map((s: { roll: number }) => s.roll)).toEqual([-1, 0, 1]);
+		const bad = await viewer.json('/api/v1/solve', 'POST', { geometry: stock, sweep: 'heave', step: 0 });
+		expect(bad.status).toBe(400);
+		expect((await bad.json()).error.field).toBe('step');
+		expect((await new Client().json('/api/v1/solve', 'POST', { geometry: stock })).status).toBe(401);
+	});
+
+	test('a corner that cannot be assembled returns the solved part and names the link', async () => {
+		const cannot = JSON.parse(readFileSync('fixtures/cannot-assemble.json', 'utf8'));
+		const res = await viewer.json('/api/v1/solve', 'POST', { geometry: cannot, sweep: 'heave', from: -50, to: 50, step: 5 });
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.error).toMatchObject({ sweep: 'heave' });
+		expect(typeof body.error.link).toBe('string');
+		expect(body.samples.length).toBeGreaterThan(0);
+		expect(body.samples.length).toBeLessThan(21);
+	});
+});
