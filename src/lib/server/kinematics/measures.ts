@@ -48,6 +48,7 @@ const C = vec3();
 /** sine of the contract's 1e-9 rad parallel tolerance, computed once */
 const SIN_PARALLEL = Math.sin(PARALLEL_TOL_RAD);
 const line = new Float64Array(6);
+const planes = new Float64Array(8);
 const hit = new Float64Array(2);
 
 /** Mark out[i] present when finite, else null (0 stored); takes no number argument, so none is boxed. */
@@ -140,22 +141,30 @@ function groundPoint(p: Pose, n: Float64Array, out: Float64Array, has: Uint8Arra
 	mark(out, has, o + F_TRAIL);
 }
 
-/**
- * Cut of the plane through an arm's pivot axis and its ball joint by the plane x = x0 (view 0,
- * front) or y = y0 (view 1, side), x0 and y0 from the wheel centre of p; a·u + b·z = c into line[k..k+2].
- */
-function armLine(e: Float64Array, pivot: Float64Array, joint: Float64Array, view: number, p: Pose, k: number): void {
-	const at = view === 0 ? p.W[0] : p.W[1];
+/** Normal (not unit) of the plane through an arm's pivot axis and its ball joint, and n·pivot, into planes[k..k+3]. */
+function armPlane(e: Float64Array, pivot: Float64Array, joint: Float64Array, k: number): void {
 	const rx = joint[0] - pivot[0];
 	const ry = joint[1] - pivot[1];
 	const rz = joint[2] - pivot[2];
 	const nx = e[1] * rz - e[2] * ry;
 	const ny = e[2] * rx - e[0] * rz;
 	const nz = e[0] * ry - e[1] * rx;
-	const nd = nx * pivot[0] + ny * pivot[1] + nz * pivot[2];
+	planes[k] = nx;
+	planes[k + 1] = ny;
+	planes[k + 2] = nz;
+	planes[k + 3] = nx * pivot[0] + ny * pivot[1] + nz * pivot[2];
+}
+
+/**
+ * Cut of plane planes[j..j+3] by x = wheel-centre x (view 0, front: a y + b z = c) or by
+ * y = wheel-centre y (view 1, side: a x + b z = c), into line[k..k+2].
+ */
+function cutPlane(p: Pose, view: number, j: number, k: number): void {
+	const nx = planes[j];
+	const ny = planes[j + 1];
 	line[k] = view === 0 ? ny : nx;
-	line[k + 1] = nz;
-	line[k + 2] = view === 0 ? nd - nx * at : nd - ny * at;
+	line[k + 1] = planes[j + 2];
+	line[k + 2] = view === 0 ? planes[j + 3] - nx * p.W[0] : planes[j + 3] - ny * p.W[1];
 }
 
 /** Strut upper line: through the top mount's projection, perpendicular to the projected strut axis. */
@@ -174,25 +183,29 @@ function meet(): boolean {
 	const b1 = line[1];
 	const a2 = line[3];
 	const b2 = line[4];
-	const n1 = Math.sqrt(a1 * a1 + b1 * b1);
-	const n2 = Math.sqrt(a2 * a2 + b2 * b2);
-	if (!(n1 > TINY) || !(n2 > TINY)) return false;
+	const q1 = a1 * a1 + b1 * b1;
+	const q2 = a2 * a2 + b2 * b2;
+	if (!(q1 > TINY * TINY) || !(q2 > TINY * TINY)) return false;
 	const det = a1 * b2 - a2 * b1;
-	if (Math.abs(det) < SIN_PARALLEL * n1 * n2) return false;
-	hit[0] = (line[2] * b2 - line[5] * b1) / det;
-	hit[1] = (a1 * line[5] - a2 * line[2]) / det;
+	// |sin(angle between the lines)| = |det| / (|n1| |n2|), compared squared to spare two roots
+	if (det * det < SIN_PARALLEL * SIN_PARALLEL * q1 * q2) return false;
+	const inv = 1 / det;
+	hit[0] = (line[2] * b2 - line[5] * b1) * inv;
+	hit[1] = (a1 * line[5] - a2 * line[2]) * inv;
 	return true;
 }
 
 /** Fill the lines of both arms (or arm and strut) for one view at the wheel-centre plane. */
 function viewLines(m: CornerModel, p: Pose, view: number): void {
-	armLine(m.lower.e, m.lower.pivot, p.L, view, p, 0);
+	cutPlane(p, view, 0, 0);
 	if (m.kind === KIND_STRUT) strutLine(m, p, view, 3);
-	else armLine(m.upper.e, m.upper.pivot, p.K, view, p, 3);
+	else cutPlane(p, view, 4, 3);
 }
 
 /** fvic, fvsa, rc_height, svic, anti-dive and anti-squat. */
 function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float64Array, has: Uint8Array, o: number): void {
+	armPlane(m.lower.e, m.lower.pivot, p.L, 0);
+	if (m.kind !== KIND_STRUT) armPlane(m.upper.e, m.upper.pivot, p.K, 4);
 	viewLines(m, p, 0);
 	const fv = meet();
 	if (fv) {

@@ -346,9 +346,9 @@ function bodyVelocity(p: Pose, q: Float64Array, out: Float64Array): void {
 /** ω = (v × w)/|v|² + λ v̂, λ from the tie rod (T − S)·dT = 0; false at a toggle. */
 function turnAboutAxis(p: Pose, w: Float64Array): boolean {
 	sub3(tmpC, p.K, p.L);
-	const vv = (tmpC[0] * tmpC[0] + tmpC[1] * tmpC[1] + tmpC[2] * tmpC[2]);
+	const ivv = 1 / (tmpC[0] * tmpC[0] + tmpC[1] * tmpC[1] + tmpC[2] * tmpC[2]);
 	cross(p.omega, tmpC, w);
-	for (let i = 0; i < 3; i++) p.omega[i] /= vv;
+	for (let i = 0; i < 3; i++) p.omega[i] *= ivv;
 	const TL = sub3(tmpD, p.T, p.L);
 	cross(tmpA, p.omega, TL);
 	for (let i = 0; i < 3; i++) tmpA[i] += p.dL[i];
