@@ -83,8 +83,7 @@ describe('bad input (issue 4)', () => {
 			code: 'duplicate_point',
 			message: 'row 14: point "lower.front" appears twice (rows 2 and 14)',
 			field: 'points.lower.front',
-			row: 14,
-			column: undefined
+			row: 14
 		});
 	});
 
@@ -196,5 +195,14 @@ describe('bad input (issue 4)', () => {
 		expect(failure(importCorner(bytes(text), mm, ctx)).message).toBe(
 			'the file has left and right rows: choose which side to import (side: "left" or "right")'
 		);
+	});
+
+	it('a side chosen that the file does not have', () => {
+		const text = 'name,side,x,y,z\nlower.front,L,1,2,3\n';
+		expect(failure(importCorner(bytes(text), { ...mm, side: 'right' }, ctx))).toEqual({
+			code: 'side_empty',
+			message: 'the file has no right rows (it has left rows only)',
+			field: 'side'
+		});
 	});
 });

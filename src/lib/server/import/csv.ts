@@ -31,8 +31,13 @@ export function checkBytes(bytes: Uint8Array): void {
 	if (nul >= 0) throw binary(nul);
 	const head = bytes.subarray(0, 8192);
 	let control = 0;
-	for (const b of head) if ((b < 0x20 && b !== 9 && b !== 10 && b !== 12 && b !== 13) || b === 0x7f) control++;
-	if (control > CONTROL_SHARE * head.length) throw binary(head.findIndex((b) => b < 0x20 && b !== 9 && b !== 10 && b !== 13));
+	for (const b of head) if (isControl(b)) control++;
+	if (control > CONTROL_SHARE * head.length) throw binary(head.findIndex(isControl));
+}
+
+/** A control byte that text files do not contain (tab, line feed, form feed, carriage return are text). */
+function isControl(b: number): boolean {
+	return (b < 0x20 && b !== 9 && b !== 10 && b !== 12 && b !== 13) || b === 0x7f;
 }
 
 /** The binary-file failure naming the first suspicious byte offset (0-based). */

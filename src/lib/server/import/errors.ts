@@ -18,6 +18,7 @@ export type ImportErrorCode =
 	| 'out_of_range'
 	| 'side_required'
 	| 'side_unknown'
+	| 'side_empty'
 	| 'alignment_point_missing'
 	| 'alignment_degenerate'
 	| 'alignment_no_target';

@@ -164,7 +164,10 @@ function splitSides(records: PointRecord[], opts: ImportOptions, c: ColumnIndexe
 		throw new ImportError('side_required', 'the file has left and right rows: choose which side to import (side: "left" or "right")', {
 			field: 'side'
 		});
-	return { kept: records.filter((r) => r.side === side), other: records.filter((r) => r.side !== side) };
+	const kept = records.filter((r) => r.side === side);
+	if (!kept.length)
+		throw new ImportError('side_empty', `the file has no ${side} rows (it has ${sides.join(' and ')} rows only)`, { field: 'side' });
+	return { kept, other: records.filter((r) => r.side !== side) };
 }
 
 /** Team aliases whose target is one of our names (a stale alias is ignored, not fatal). */
@@ -196,8 +199,7 @@ function duplicate(r: PointRecord, name: string, first: PointRecord): ImportErro
 	const via = name === r.fileName ? '' : ` ("${first.fileName}" and "${r.fileName}" both map to it)`;
 	return new ImportError('duplicate_point', `row ${r.row}: point "${name}" appears twice (rows ${first.row} and ${r.row})${via}`, {
 		field: KNOWN_POINTS.includes(name) ? `points.${name}` : 'file',
-		row: r.row,
-		column: undefined
+		row: r.row
 	});
 }
 
