@@ -18,6 +18,8 @@ export const DRIVER_SLOPE_MIN = 1e-9;
 export const PARALLEL_TOL_RAD = 1e-9;
 /** A sweep end on the step grid within this many steps' fraction is included (contract: 1e-9). */
 export const GRID_TOL = 1e-9;
+/** Sweep positions are rounded to this many decimals (mm or degrees), so 0.1-type steps print cleanly. */
+export const GRID_DECIMALS = 12;
 /** Lengths below this (mm) are zero: coincident points, zero-length links. */
 export const ZERO_LENGTH_MM = 1e-6;
 /** Relative slack when a circle only just meets a sphere (rounding, not geometry). */

@@ -1,6 +1,7 @@
 // Frame: ISO 8855 vehicle axes, x forward, y left, z up; lengths in mm, angles in radians.
 // Rigid-body rotations as row-major 3x3 Float64Array(9): R[3 * row + col].
 
+import { TINY } from './constants';
 import type { Vec3 } from './vec3';
 
 /** A row-major 3x3 rotation matrix. */
@@ -48,7 +49,7 @@ export function minimalRotation(out: Mat3, u: Vec3, v: Vec3): boolean {
 	const kz = u[0] * v[1] - u[1] * v[0];
 	const c = u[0] * v[0] + u[1] * v[1] + u[2] * v[2];
 	const h = 1 + c;
-	if (!(h > 1e-12)) return false;
+	if (!(h > TINY)) return false;
 	const f = 1 / h;
 	out[0] = c + f * kx * kx;
 	out[1] = f * kx * ky - kz;

@@ -3,7 +3,7 @@
 // Sweeps: the step grid, and continuation outward from design in both directions, so the
 // solution follows one assembly branch; each solved position is written into flat buffers.
 
-import { GRID_TOL, MAX_SAMPLES, MAX_STEP_MM, MAX_STEP_ROLL_RAD, RAD } from './constants';
+import { GRID_DECIMALS, GRID_TOL, MAX_SAMPLES, MAX_STEP_MM, MAX_STEP_ROLL_RAD, RAD } from './constants';
 import { KIND_STRUT, SPRING_NONE, type CornerModel } from './corner';
 import { computeMeasures, N_FIELDS, SWEEP_HEAVE, SWEEP_ROLL, SWEEP_STEER, type MeasureContext } from './measures';
 import { place } from './pose';
@@ -67,9 +67,11 @@ export function gridCount(from: number, to: number, step: number): number {
 	return Math.floor((to - from) / step + GRID_TOL) + 1;
 }
 
-/** Grid position k (rounded to 1e-12 so 0.1-type steps print cleanly). */
+const GRID_SCALE = 10 ** GRID_DECIMALS; // exactly 1e12
+
+/** Grid position k, rounded to GRID_DECIMALS decimals so 0.1-type steps print cleanly. */
 function gridValue(from: number, step: number, k: number): number {
-	return Math.round((from + k * step) * 1e12) / 1e12;
+	return Math.round((from + k * step) * GRID_SCALE) / GRID_SCALE;
 }
 
 /** The continuation state carried from one position to the next (numbers kept in fields so none is boxed). */
@@ -173,7 +175,7 @@ function travelTo(m: CornerModel, w: Walker): number {
 	const from = w.at;
 	const to = w.target;
 	const h = w.sweep === SWEEP_ROLL ? MAX_STEP_ROLL_RAD / RAD : MAX_STEP_MM; // grid units
-	const n = Math.ceil(Math.abs(to - from) / h - 1e-9);
+	const n = Math.ceil(Math.abs(to - from) / h - GRID_TOL);
 	for (let i = 1; i < n; i++) {
 		w.at = from + ((to - from) * i) / n;
 		const code = step(m, w);
