@@ -77,3 +77,22 @@ export async function countMembers(db: Database, teamId: string, since = new Dat
 		.where(and(eq(memberships.teamId, teamId), gt(memberships.createdAt, since)));
 	return row.n;
 }
+
+/** A user's API tokens (never the token itself), newest first. */
+export function apiTokensOfUser(db: Database, userId: string) {
+	return db
+		.select({ id: apiTokens.id, name: apiTokens.name, createdAt: apiTokens.createdAt, lastUsedAt: apiTokens.lastUsedAt, revokedAt: apiTokens.revokedAt })
+		.from(apiTokens)
+		.where(eq(apiTokens.userId, userId))
+		.orderBy(sql`${apiTokens.createdAt} desc`);
+}
+
+/** Revokes one of the user's tokens; false when it is not theirs or already revoked. */
+export async function revokeApiToken(db: Database, userId: string, tokenId: string) {
+	const rows = await db
+		.update(apiTokens)
+		.set({ revokedAt: sql`now()` })
+		.where(and(eq(apiTokens.id, tokenId), eq(apiTokens.userId, userId), sql`${apiTokens.revokedAt} is null`))
+		.returning({ id: apiTokens.id });
+	return rows.length > 0;
+}
