@@ -1,3 +1,4 @@
+// Frame: ISO 8855 vehicle axes (x forward, y left, z up); benches report figures only, never assert on time.
 // Runs every bench module in turn and prints its figures (`npm run bench`). Add new benches to BENCHES.
 
 import * as kinematics from './kinematics';
