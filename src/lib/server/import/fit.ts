@@ -82,18 +82,22 @@ function centroid(ps: Vec3[]): Vec3 {
 /** Refuse fewer than 3 points, or points all within `collinearMm` of one line (mm). */
 function checkSpread(ps: Vec3[], names: string[]): void {
 	if (ps.length < 3)
-		throw new ImportError('alignment_point_missing', `alignment: best fit needs at least 3 common points, found ${ps.length} (${names.join(', ') || 'none'})`, {
-			field: 'alignment.names'
-		});
+		throw new ImportError(
+			'alignment_point_missing',
+			`alignment: best fit needs at least 3 common points, found ${ps.length} (${names.join(', ') || 'none'})`,
+			{ field: 'alignment.names' }
+		);
 	const c = centroid(ps);
 	const far = ps.reduce((a, p) => (dist(p, c) > dist(a, c) ? p : a), ps[0]);
 	const u = sub(far, c);
 	const lu = norm(u);
 	const off = lu === 0 ? 0 : Math.max(...ps.map((p) => norm(cross(sub(p, c), u)) / lu));
 	if (off < IMPORT_LIMITS.collinearMm)
-		throw new ImportError('alignment_degenerate', `alignment: the common points ${names.join(', ')} lie on one line; best fit needs 3 points not on a line`, {
-			field: 'alignment.names'
-		});
+		throw new ImportError(
+			'alignment_degenerate',
+			`alignment: the common points ${names.join(', ')} lie on one line; best fit needs 3 points not on a line`,
+			{ field: 'alignment.names' }
+		);
 }
 
 /** Best-fit rigid map (Kabsch, no scale) of pairs' `from` onto `to`; ≥ 3 non-collinear points (mm). */

@@ -8,7 +8,17 @@
 // destination corner's own points, already on the mirrored side).
 
 import { importOptionsSchema, IMPORT_LIMITS, KNOWN_POINTS, REQUIRED_POINTS_BY_KIND, type ImportOptions } from './options';
-import { checkBytes, decodeText, detectDecimalComma, detectDelimiter, looksLikeHeader, parseNumber, parseRows, type CsvRow, type Delimiter } from './csv';
+import {
+	checkBytes,
+	decodeText,
+	detectDecimalComma,
+	detectDelimiter,
+	looksLikeHeader,
+	parseNumber,
+	parseRows,
+	type CsvRow,
+	type Delimiter
+} from './csv';
 import { ImportError, type ImportFailure } from './errors';
 import { bestFit, datumTransform, type FitPair, type FitResult } from './fit';
 import { checkTargets, nameMapper, parseSide, resolveColumns, type ColumnIndexes } from './mapping';
@@ -255,22 +265,37 @@ function report(method: AlignmentReport['method'], fit: FitResult, points: strin
 /** The current revision's points, or a failure saying the alignment needs them. */
 function currentOf(ctx: ImportContext): Record<string, Vec3> {
 	if (ctx.currentPoints && Object.keys(ctx.currentPoints).length) return ctx.currentPoints;
-	throw new ImportError('alignment_no_target', 'alignment: the corner has no current revision to align onto', { field: 'alignment' });
+	throw new ImportError('alignment_no_target', 'alignment: the corner has no current revision to align onto', {
+		field: 'alignment'
+	});
 }
 
-/** Datum alignment from three named points, optionally onto target coordinates (mm). */
-function datumFit(s: SidePoints, names: [string, string, string], targets: 'current' | [Vec3, Vec3, Vec3] | undefined, opts: ImportOptions, ctx: ImportContext): FitResult {
+/** The failure for an alignment point that is missing from `where` ('the file' or 'the current revision'). */
+function notIn(field: string, what: string, where: string): ImportError {
+	return new ImportError('alignment_point_missing', `${field}: ${what} is not in ${where}`, { field });
+}
+
+type Triple = [Vec3, Vec3, Vec3];
+
+/** Datum alignment from three named points, optionally onto target coordinates (mm) or the current revision's. */
+function datumFit(
+	s: SidePoints,
+	names: [string, string, string],
+	targets: 'current' | Triple | undefined,
+	opts: ImportOptions,
+	ctx: ImportContext
+): FitResult {
 	const measured = names.map((n, i) => {
 		const r = findPoint(s, n);
-		if (!r) throw new ImportError('alignment_point_missing', `alignment.points.${i}: datum point "${n}" is not in the file`, { field: `alignment.points.${i}` });
+		if (!r) throw notIn(`alignment.points.${i}`, `datum point "${n}"`, 'the file');
 		return isoOf(r, opts);
-	}) as [Vec3, Vec3, Vec3];
+	}) as Triple;
 	if (targets !== 'current') return datumTransform(measured, names, targets);
 	const current = currentOf(ctx);
 	const t = names.map((n, i) => {
-		if (!current[n]) throw new ImportError('alignment_point_missing', `alignment.points.${i}: datum point "${n}" is not in the current revision`, { field: `alignment.points.${i}` });
+		if (!current[n]) throw notIn(`alignment.points.${i}`, `datum point "${n}"`, 'the current revision');
 		return current[n];
-	}) as [Vec3, Vec3, Vec3];
+	}) as Triple;
 	return datumTransform(measured, names, t);
 }
 
@@ -280,8 +305,8 @@ function bestFitPairs(s: SidePoints, names: string[] | undefined, opts: ImportOp
 	const use = names ?? [...s.byOurs.keys()].filter((n) => current[n]);
 	return use.map((name, i) => {
 		const r = findPoint(s, name);
-		if (!r) throw new ImportError('alignment_point_missing', `alignment.names.${i}: "${name}" is not in the file`, { field: `alignment.names.${i}` });
-		if (!current[name]) throw new ImportError('alignment_point_missing', `alignment.names.${i}: "${name}" is not in the current revision`, { field: `alignment.names.${i}` });
+		if (!r) throw notIn(`alignment.names.${i}`, `"${name}"`, 'the file');
+		if (!current[name]) throw notIn(`alignment.names.${i}`, `"${name}"`, 'the current revision');
 		return { name, from: isoOf(r, opts), to: current[name] };
 	});
 }
@@ -295,7 +320,8 @@ function outputPoints(s: SidePoints, map: Affine, opts: ImportOptions): Record<s
 		if (i >= 0)
 			throw new ImportError(
 				'out_of_range',
-				`points.${name}: ${'xyz'[i]} = ${p[i].toFixed(1)} mm (row ${r.row}) is beyond ±${IMPORT_LIMITS.maxCoordinateMm} mm: check the unit, axes and alignment`,
+				`points.${name}: ${'xyz'[i]} = ${p[i].toFixed(1)} mm (row ${r.row}) is beyond ` +
+					`±${IMPORT_LIMITS.maxCoordinateMm} mm: check the unit, axes and alignment`,
 				{ field: `points.${name}`, row: r.row }
 			);
 		out[name] = p;
@@ -308,7 +334,8 @@ function sideWarnings(points: Record<string, Vec3>, ctx: ImportContext): string[
 	const w = points['wheel.centre'];
 	if (!w || !ctx.cornerSide || w[1] === 0) return [];
 	const lands = w[1] > 0 ? 'left' : 'right';
-	return lands === ctx.cornerSide ? [] : [`wheel.centre lands on the ${lands} side (y = ${w[1].toFixed(1)} mm) but the corner is a ${ctx.cornerSide} corner: mirror it?`];
+	if (lands === ctx.cornerSide) return [];
+	return [`wheel.centre lands on the ${lands} side (y = ${w[1].toFixed(1)} mm) but the corner is a ${ctx.cornerSide} corner: mirror it?`];
 }
 
 /** Symmetry of the two measured sides, both through the same map (vehicle frame, mm). */
