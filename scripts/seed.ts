@@ -1,13 +1,37 @@
 // Seeds the invented demo team: three accounts (owner, engineer, viewer) and a demo car. Safe to run again.
 // Usage: tsx scripts/seed.ts [DATABASE_URL]
+import { readFileSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
-import { connect } from '../src/lib/server/db/connect';
-import { cars, memberships, teams, users, type Role } from '../src/lib/server/db/schema';
+import { connect, type Database } from '../src/lib/server/db/connect';
+import { appendRevision, setBaseline } from '../src/lib/server/db/queries/corners';
+import { cars, corners, memberships, revisions, teams, users, type Role } from '../src/lib/server/db/schema';
 import { hashPassword } from '../src/lib/server/auth/passwords';
 
 export const DEMO_PASSWORD = 'linkwright-demo';
 export const DEMO_TEAM_ID = '00000000-0000-4000-8000-00000000d3e0';
 export const DEMO_CAR_ID = '00000000-0000-4000-8000-00000000ca01';
+export const DEMO_FRONT_LEFT_ID = '00000000-0000-4000-8000-0000000000f1';
+export const DEMO_FRONT_RIGHT_ID = '00000000-0000-4000-8000-0000000000f2';
+
+type Geometry = { name: string; points: Record<string, [number, number, number]>; [k: string]: unknown };
+
+/** A demo corner file from fixtures/demo. */
+function fixture(name: string): Geometry {
+	return JSON.parse(readFileSync(new URL(`../fixtures/demo/${name}.json`, import.meta.url), 'utf8'));
+}
+
+/** The same corner on the other side of the car (y → −y). */
+function mirrored(g: Geometry, name: string): Geometry {
+	const points = Object.fromEntries(Object.entries(g.points).map(([k, [x, y, z]]) => [k, [x, -y, z]])) as Geometry['points'];
+	return { ...g, name, points };
+}
+
+// The invented demo story: the rack must move up and back to clear a new exhaust header.
+const STORY = [
+	{ file: 'front-left-stock', label: 'stock', note: 'As built, measured on the jig.' },
+	{ file: 'front-left-rack-moved', label: 'rack moved', note: 'Rack 20 mm up and 15 mm back to clear the new exhaust header. Bump steer is far worse.' },
+	{ file: 'front-left-partial-fix', label: 'spacer 12 mm', note: 'First try: 12 mm spacer under the outer tie-rod joint. About half the bump steer is gone.' }
+];
 export const DEMO_ACCOUNTS: { email: string; name: string; role: Role }[] = [
 	{ email: 'owner@linkwright.test', name: 'Demo Owner', role: 'owner' },
 	{ email: 'engineer@linkwright.test', name: 'Demo Engineer', role: 'engineer' },
@@ -37,19 +61,45 @@ export async function seed(url: string) {
 				.values({
 					id: DEMO_CAR_ID,
 					teamId: DEMO_TEAM_ID,
-					name: 'Club racer demo',
-					series: 'Invented club series, front-wheel drive',
+					name: 'Hillclimb demo car',
+					series: 'Invented hillclimb class, front-wheel drive',
 					wheelbaseMm: 2400,
-					cgHeightMm: 420,
-					frontBrakeFraction: 0.65,
+					cgHeightMm: 480,
+					frontBrakeFraction: 0.7,
 					driveLayout: 'fwd',
-					notes: 'An invented car for trying Linkwright out. Its figures are made up.'
+					notes: 'An invented small front-wheel-drive hillclimb car for trying Linkwright out; its figures are made up. The steering rack has to move up and back to clear a new exhaust header.'
 				})
 				.onConflictDoNothing();
 		});
+		await seedCorners(db, (await db.select({ id: users.id }).from(users).where(eq(users.email, 'engineer@linkwright.test')))[0].id);
 	} finally {
 		await client.end();
 	}
+}
+
+/** The demo car's front corners and their revisions, written once. */
+async function seedCorners(db: Database, authorId: string) {
+	await db
+		.insert(corners)
+		.values([
+			{ id: DEMO_FRONT_LEFT_ID, carId: DEMO_CAR_ID, position: 'front_left', kind: 'double_wishbone' },
+			{ id: DEMO_FRONT_RIGHT_ID, carId: DEMO_CAR_ID, position: 'front_right', kind: 'double_wishbone' }
+		])
+		.onConflictDoNothing();
+	const existing = await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.cornerId, DEMO_FRONT_LEFT_ID)).limit(1);
+	if (existing.length) return;
+	let parentId: string | null = null;
+	let baseline: string | null = null;
+	for (const step of STORY) {
+		const geometry = fixture(step.file);
+		const rev = await appendRevision(db, { cornerId: DEMO_FRONT_LEFT_ID, kind: 'double_wishbone', geometry, label: step.label, note: step.note, parentId, authorId });
+		parentId = rev.id;
+		baseline ??= rev.id;
+	}
+	await setBaseline(db, DEMO_FRONT_LEFT_ID, baseline);
+	const right = mirrored(fixture('front-left-stock'), 'Hillclimb demo, front right, stock');
+	const rev = await appendRevision(db, { cornerId: DEMO_FRONT_RIGHT_ID, kind: 'double_wishbone', geometry: right, label: 'stock', note: 'Mirror of the front left.', parentId: null, authorId });
+	await setBaseline(db, DEMO_FRONT_RIGHT_ID, rev.id);
 }
 
 if (process.argv[1]?.endsWith('seed.ts')) {

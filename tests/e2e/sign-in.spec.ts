@@ -5,7 +5,7 @@ for (const role of ['owner', 'engineer', 'viewer'] as const) {
 	test(`the demo ${role} signs in, sees the demo car and signs out`, async ({ page }) => {
 		await signIn(page, `${role}@linkwright.test`);
 		await expect(page.getByTestId('role-badge')).toHaveText(role);
-		await expect(page.getByRole('link', { name: /Club racer demo/ })).toBeVisible();
+		await expect(page.getByRole('link', { name: /Hillclimb demo car/ })).toBeVisible();
 		await page.getByRole('button', { name: /^Demo / }).click();
 		await page.getByRole('menuitem', { name: 'Sign out' }).click();
 		await expect(page.getByRole('heading', { name: 'Sign in' })).toBeVisible();
