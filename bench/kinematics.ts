@@ -2,6 +2,7 @@
 // Kinematics bench: prints figures beside their targets (issue 3); asserts nothing about time.
 
 import { readFileSync } from 'node:fs';
+import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
@@ -84,6 +85,8 @@ export function run(): void {
 	const check = solver.run(SWEEP);
 	if (check.failCode !== 0 || check.hi - check.lo + 1 !== POSITIONS) throw new Error('bench sweep did not solve');
 	console.log(`kinematics: ${corner.name ?? 'corner'}, heave -80..80 mm by 1 mm (${POSITIONS} positions)`);
+	const load = loadavg()[0].toFixed(2);
+	console.log(`  (load average ${load} on ${availableParallelism()} cores: figures are slower on a busy machine)`);
 	const us = sweepMedianUs(solver);
 	line('engine sweep, all measures, median', `${us.toFixed(1)} µs`, '<= 100 µs');
 	const rate = throughput(solver);
