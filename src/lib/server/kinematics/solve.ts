@@ -84,6 +84,8 @@ export class Pose {
 	/** solver inputs kept here so that no number is boxed on a call: start angle, last step (rad) */
 	guess = 0;
 	step = 0;
+	/** keep every point exact (tie-rod end, strut.lower, spring.body), not only those the measures use */
+	allPoints = true;
 }
 
 // Module-level scratch: the solver is synchronous, so one set serves every call.
@@ -322,11 +324,11 @@ function velocity(m: CornerModel, p: Pose): void {
 	p.velocityFail = FAIL_TIE_ROD;
 	if (!turnAboutAxis(p, w)) return;
 	bodyVelocity(p, p.W, p.dW);
-	bodyVelocity(p, p.T, p.dT);
 	cross(p.da, p.omega, p.a);
-	if (m.kind === KIND_STRUT) {
-		bodyVelocity(p, p.SL, p.dSL);
-		cross(p.dd, p.omega, p.d);
+	if (m.kind === KIND_STRUT) cross(p.dd, p.omega, p.d);
+	if (p.allPoints) {
+		bodyVelocity(p, p.T, p.dT);
+		if (m.kind === KIND_STRUT) bodyVelocity(p, p.SL, p.dSL);
 	}
 	springVelocity(m, p);
 	p.velocityOk = true;
@@ -470,23 +472,34 @@ function diagnose(m: CornerModel, ref: Branch, d: Driver, p: Pose, fallback: num
 	return fallback;
 }
 
-/** Move pose p by p.step (rad of θ) along its velocity: the final Newton step, to first order. */
+/**
+ * Move pose p by p.step (rad of θ) along its velocity: the final Newton step, to first order.
+ * Only what the measures read is moved unless p.allPoints (the per-sample point list) is set.
+ */
 function advance(m: CornerModel, p: Pose): void {
-	const dTheta = p.step;
-	p.branch.theta += dTheta;
-	for (let i = 0; i < 3; i++) {
-		p.L[i] += dTheta * p.dL[i];
-		p.K[i] += dTheta * p.dK[i];
-		p.W[i] += dTheta * p.dW[i];
-		p.T[i] += dTheta * p.dT[i];
-		p.a[i] += dTheta * p.da[i];
-		p.B[i] += dTheta * p.dB[i];
-		p.SL[i] += dTheta * p.dSL[i];
-		p.d[i] += dTheta * p.dd[i];
-	}
-	p.springLength += dTheta * p.dSpringLength;
+	const h = p.step;
+	p.branch.theta += h;
+	nudge(p.L, p.dL, h);
+	nudge(p.K, p.dK, h);
+	nudge(p.W, p.dW, h);
+	nudge(p.a, p.da, h);
 	renormalize(p.a);
-	if (m.kind === KIND_STRUT) renormalize(p.d);
+	p.springLength += h * p.dSpringLength;
+	if (m.kind === KIND_STRUT) {
+		nudge(p.d, p.dd, h);
+		renormalize(p.d);
+	}
+	if (!p.allPoints) return;
+	nudge(p.T, p.dT, h);
+	nudge(p.B, p.dB, h);
+	if (m.kind === KIND_STRUT) nudge(p.SL, p.dSL, h);
+}
+
+/** v += h dv (mm, or unitless for directions). */
+function nudge(v: Float64Array, dv: Float64Array, h: number): void {
+	v[0] += h * dv[0];
+	v[1] += h * dv[1];
+	v[2] += h * dv[2];
 }
 
 /** Scale unit vector v back to length 1 after a first-order update. */

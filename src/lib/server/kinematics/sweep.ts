@@ -261,6 +261,7 @@ export function runSweep(m: CornerModel, spec: SweepSpec, buf: SweepBuffer): voi
 	for (let k = 0; k < n; k++) buf.positions[k] = gridValue(spec.from, spec.step, k);
 	if (n > 0 && Math.abs(buf.positions[n - 1] - spec.to) <= GRID_TOL * spec.step) buf.positions[n - 1] = spec.to;
 	const rack = spec.sweep === SWEEP_STEER ? 0 : spec.rack;
+	walker.pose.allPoints = true;
 	const code = approachRack(m, walker, rack);
 	if (code !== OK) {
 		buf.failCode = code;
@@ -274,6 +275,7 @@ export function runSweep(m: CornerModel, spec: SweepSpec, buf: SweepBuffer): voi
 	const exact = spec.sweep !== SWEEP_ROLL;
 	walker.sweep = spec.sweep;
 	walker.rackHeld = rack;
+	walker.pose.allPoints = spec.points;
 	restart(walker, exact);
 	let hi = first - 1;
 	for (let k = first; k < n && solveRow(m, spec, buf, k); k++) hi = k;
