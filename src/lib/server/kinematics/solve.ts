@@ -479,24 +479,25 @@ function diagnose(m: CornerModel, ref: Branch, d: Driver, p: Pose, fallback: num
 function advance(m: CornerModel, p: Pose): void {
 	const h = p.step;
 	p.branch.theta += h;
-	nudge(p.L, p.dL, h);
-	nudge(p.K, p.dK, h);
-	nudge(p.W, p.dW, h);
-	nudge(p.a, p.da, h);
+	nudge(p.L, p.dL, p);
+	nudge(p.K, p.dK, p);
+	nudge(p.W, p.dW, p);
+	nudge(p.a, p.da, p);
 	renormalize(p.a);
 	p.springLength += h * p.dSpringLength;
 	if (m.kind === KIND_STRUT) {
-		nudge(p.d, p.dd, h);
+		nudge(p.d, p.dd, p);
 		renormalize(p.d);
 	}
 	if (!p.allPoints) return;
-	nudge(p.T, p.dT, h);
-	nudge(p.B, p.dB, h);
-	if (m.kind === KIND_STRUT) nudge(p.SL, p.dSL, h);
+	nudge(p.T, p.dT, p);
+	nudge(p.B, p.dB, p);
+	if (m.kind === KIND_STRUT) nudge(p.SL, p.dSL, p);
 }
 
-/** v += h dv (mm, or unitless for directions). */
-function nudge(v: Float64Array, dv: Float64Array, h: number): void {
+/** v += p.step · dv (mm, or unitless for directions); the step is read from p so no number is boxed. */
+function nudge(v: Float64Array, dv: Float64Array, p: Pose): void {
+	const h = p.step;
 	v[0] += h * dv[0];
 	v[1] += h * dv[1];
 	v[2] += h * dv[2];
