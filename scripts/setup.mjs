@@ -96,6 +96,8 @@ export function appEnv({ databaseUrl: url, port }) {
 		LW_DEMO: process.env.LW_DEMO ?? 'true',
 		HOST: '127.0.0.1',
 		PORT: String(port),
+		// Uploads up to 5 MB are imported; larger ones must reach the app to get its clear message.
+		BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '25M',
 		ORIGIN: process.env.ORIGIN ?? `http://127.0.0.1:${port}`
 	};
 }
