@@ -108,7 +108,16 @@ export class CornerSolver {
 	sweep(options: SweepOptions): SweepResult {
 		const buf = this.run(options);
 		const samples: Sample[] = [];
-		for (let k = buf.lo; k <= buf.hi; k++) samples.push(sampleOf(this.model, buf, k, options));
+		let broken = NaN;
+		for (let k = buf.lo; k <= buf.hi; k++) {
+			// a guard that should never trip: a non-finite row is dropped rather than printed
+			if (rowFinite(buf, k)) samples.push(sampleOf(this.model, buf, k, options));
+			else if (Number.isNaN(broken)) broken = buf.positions[k];
+		}
+		if (!Number.isNaN(broken) && buf.failCode === 0) {
+			buf.failCode = 5;
+			buf.failPosition = broken;
+		}
 		const error = buf.failCode === 0 ? null : errorOf(buf, options.sweep);
 		return { samples, error };
 	}
@@ -161,7 +170,8 @@ function specOf(o: SweepOptions, out: SweepSpec): SweepSpec {
 /** Column f of row k, or null. */
 function val(buf: SweepBuffer, k: number, f: number): number | null {
 	const i = k * F.N_FIELDS + f;
-	return buf.has[i] ? buf.values[i] : null;
+	const v = buf.values[i];
+	return buf.has[i] && Number.isFinite(v) ? v : null; // never NaN or Infinity in output
 }
 
 /** Column f of row k in degrees, or null. */
@@ -181,6 +191,15 @@ function pair(buf: SweepBuffer, k: number, f: number): [number, number] | null {
 function triple(buf: SweepBuffer, k: number, f: number): [number, number, number] {
 	const o = k * F.N_FIELDS + f;
 	return [buf.values[o], buf.values[o + 1], buf.values[o + 2]];
+}
+
+/** True when every number of row k that will be printed is finite. */
+function rowFinite(buf: SweepBuffer, k: number): boolean {
+	const o = k * F.N_FIELDS;
+	for (const f of [F.F_CAMBER, F.F_TOE, F.F_CASTER, F.F_KPI, F.F_HALF_TRACK, F.F_WHEELBASE, F.F_WC_X, F.F_WC_X + 1, F.F_WC_X + 2, F.F_CP_X, F.F_CP_X + 1, F.F_CP_X + 2]) {
+		if (!Number.isFinite(buf.values[o + f])) return false;
+	}
+	return true;
 }
 
 /** The contract sample of row k (key order as in the contract). */

@@ -84,23 +84,23 @@ export function computeMeasures(
 	const az = p.a[2] > 1 ? 1 : p.a[2] < -1 ? -1 : p.a[2];
 	const camber = -Math.asin(az);
 	out[o + F_CAMBER] = camber;
-	mark(out, has, o + F_CAMBER);
+	has[o + F_CAMBER] = 1; // finite by construction (bounded inverse trig, differences)
 	// atan2(y, x) through the cheaper atan where x > 0 (the two agree there)
 	const ay0 = Math.abs(p.a[1]);
 	out[o + F_TOE] = ay0 > 0 ? Math.atan(p.a[0] / ay0) : Math.atan2(p.a[0], ay0);
-	mark(out, has, o + F_TOE);
+	has[o + F_TOE] = 1; // finite by construction (bounded inverse trig, differences)
 	const ax = p.K[0] - p.L[0];
 	const ay = p.K[1] - p.L[1];
 	const azz = p.K[2] - p.L[2];
 	out[o + F_CASTER] = azz > 0 ? Math.atan(-ax / azz) : Math.atan2(-ax, azz);
-	mark(out, has, o + F_CASTER);
+	has[o + F_CASTER] = 1; // finite by construction (bounded inverse trig, differences)
 	out[o + F_KPI] = azz > 0 ? Math.atan((-s * ay) / azz) : Math.atan2(-s * ay, azz);
-	mark(out, has, o + F_KPI);
+	has[o + F_KPI] = 1; // finite by construction (bounded inverse trig, differences)
 	groundPoint(p, ctx.n, out, has, o, s);
 	out[o + F_HALF_TRACK] = s * (C[1] - m.contact0[1]);
-	mark(out, has, o + F_HALF_TRACK);
+	has[o + F_HALF_TRACK] = 1; // finite by construction (bounded inverse trig, differences)
 	out[o + F_WHEELBASE] = C[0] - m.contact0[0];
-	mark(out, has, o + F_WHEELBASE);
+	has[o + F_WHEELBASE] = 1; // finite by construction (bounded inverse trig, differences)
 	instantCentres(m, p, ctx, out, has, o);
 	if (ctx.sweep === SWEEP_ROLL) {
 		out[o + F_CAMBER_GROUND] = camber + s * ctx.roll;
