@@ -14,7 +14,7 @@ let cornerId = '';
 /** Posts a file and options to the import endpoint. */
 function upload(client: Client, body: Uint8Array | string, options: unknown, extra: Record<string, string> = {}, name = 'points.csv') {
 	const form = new FormData();
-	form.set('file', new File([body], name, { type: 'text/csv' }));
+	form.set('file', new File([typeof body === 'string' ? body : new Uint8Array(body)], name, { type: 'text/csv' }));
 	form.set('options', JSON.stringify(options));
 	for (const [k, v] of Object.entries(extra)) form.set(k, v);
 	return client.fetch(`/api/v1/corners/${cornerId}/import`, { method: 'POST', body: form });

@@ -1,0 +1,92 @@
+import { readFileSync } from 'node:fs';
+import { expect, test } from '@playwright/test';
+import { signIn } from './helpers';
+
+const FRONT_LEFT = '/corners/00000000-0000-4000-8000-0000000000f1';
+const stock = JSON.parse(readFileSync('fixtures/demo/front-left-stock.json', 'utf8'));
+
+test('the engineer imports the inch scanner CSV, aligns it onto the baseline and saves it', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	await page.getByRole('link', { name: 'Import CSV' }).click();
+	await page.getByLabel('CSV file (at most 5 MB)').setInputFiles('fixtures/club-fwd-front-left-scan-inches.csv');
+	await page.getByLabel('Units in the file').selectOption('in');
+	await expect(page.getByLabel(/Best fit onto r1/)).toBeChecked();
+	await page.getByRole('button', { name: 'Preview' }).click();
+	await expect(page.getByTestId('alignment')).toContainText('best fit');
+	await page.screenshot({ path: 'test-results/screens/import-preview.png', fullPage: true });
+	for (const name of ['lower.front', 'upper.outer', 'steer.inner', 'wheel.centre']) {
+		expect(Number(await page.getByTestId(`delta-${name}`).textContent())).toBeLessThan(0.1);
+	}
+	await page.getByLabel('Label').fill('scan import');
+	await page.getByRole('button', { name: 'Save as new revision' }).click();
+	await expect(page).toHaveURL(new RegExp(`${FRONT_LEFT}$`));
+	await expect(page.getByText(/Showing r\d+ “scan import” \(latest\)/)).toBeVisible();
+	const x = await page.getByLabel('Lower arm, front pivot, x in mm').inputValue();
+	expect(Number(x)).toBeCloseTo(stock.points['lower.front'][0], 1);
+});
+
+test('a bad CSV shows the message naming the row and column, and nothing is saved', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(`${FRONT_LEFT}/import`);
+	await page.getByLabel('CSV file (at most 5 MB)').setInputFiles({
+		name: 'bad.csv',
+		mimeType: 'text/csv',
+		buffer: Buffer.from('point,x,y,z\nlower.front,180,335,12;4\n')
+	});
+	await page.getByRole('button', { name: 'Preview' }).click();
+	await expect(page.getByTestId('import-error')).toHaveText('row 2, column z: "12;4" is not a number');
+});
+
+test('editing a point and saving makes a new revision; a bad value is named inline', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto('/corners/00000000-0000-4000-8000-0000000000f2');
+	const z = page.getByLabel('Tie rod, inner joint, z in mm');
+	await z.fill('abc');
+	await expect(page.getByText('"abc" is not a number')).toBeVisible();
+	await z.fill('196');
+	await page.keyboard.press('Enter');
+	await expect(page.getByLabel('Tie rod, outer joint, z in mm')).toBeFocused();
+	await expect(page.getByTestId('unsaved')).toBeVisible();
+	await page.getByLabel('Label').fill('rack up 20');
+	await page.getByRole('button', { name: 'Save as new revision' }).click();
+	await expect(page.getByTestId('saved')).toContainText('Saved as r2');
+	await expect(page.getByText('Showing r2 “rack up 20” (latest)')).toBeVisible();
+	await expect(page.locator('[data-revision="1"]').getByTestId('baseline-badge')).toBeVisible();
+});
+
+test('a block pasted from a spreadsheet fills the table from the focused cell', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto('/corners/00000000-0000-4000-8000-0000000000f2');
+	const first = page.getByLabel('Lower arm, front pivot, x in mm');
+	await first.focus();
+	await page.evaluate(() => {
+		const data = new DataTransfer();
+		data.setData('text/plain', '181\t-336\t128\n-221\t-346\t134\n');
+		document.activeElement!.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }));
+	});
+	await expect(page.getByLabel('Lower arm, rear pivot, z in mm')).toHaveValue('134.0');
+	await expect(page.getByLabel('Lower arm, front pivot, y in mm')).toHaveValue('-336.0');
+});
+
+test('the viewer reads the points but cannot edit, import or save', async ({ page }) => {
+	await signIn(page, 'viewer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	await expect(page.getByRole('table', { name: /Pickup points/ })).toBeVisible();
+	await expect(page.getByRole('button', { name: 'Save as new revision' })).toHaveCount(0);
+	await expect(page.getByRole('link', { name: 'Import CSV' })).toHaveCount(0);
+	await expect(page.getByRole('textbox', { name: /in mm$/ })).toHaveCount(0);
+	const res = await page.goto(`${FRONT_LEFT}/import`);
+	expect(res?.status()).toBe(403);
+});
+
+test('an old revision opens read only and can start a new one', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	await page.getByRole('link', { name: 'r1 · stock' }).click();
+	await expect(page.getByRole('heading', { name: /Revision 1 · stock/ })).toBeVisible();
+	await expect(page.getByText(/read only/)).toBeVisible();
+	await page.getByRole('link', { name: 'Start a new revision from this' }).click();
+	await expect(page.getByText(/Showing r1 “stock” — the latest is r\d/)).toBeVisible();
+	await page.screenshot({ path: 'test-results/screens/corner-editor.png', fullPage: true });
+});
