@@ -10,6 +10,8 @@ import { hashPassword } from '../src/lib/server/auth/passwords';
 export const DEMO_PASSWORD = 'linkwright-demo';
 export const DEMO_TEAM_ID = '00000000-0000-4000-8000-00000000d3e0';
 export const DEMO_CAR_ID = '00000000-0000-4000-8000-00000000ca01';
+const DEMO_CAR_NOTES =
+	'An invented small front-wheel-drive hillclimb car for trying Linkwright out; its figures are made up. The steering rack has to move up and back to clear a new exhaust header.';
 export const DEMO_FRONT_LEFT_ID = '00000000-0000-4000-8000-0000000000f1';
 export const DEMO_FRONT_RIGHT_ID = '00000000-0000-4000-8000-0000000000f2';
 
@@ -67,9 +69,9 @@ export async function seed(url: string) {
 					cgHeightMm: 480,
 					frontBrakeFraction: 0.7,
 					driveLayout: 'fwd',
-					notes: 'An invented small front-wheel-drive hillclimb car for trying Linkwright out; its figures are made up. The steering rack has to move up and back to clear a new exhaust header.'
+					notes: DEMO_CAR_NOTES
 				})
-				.onConflictDoNothing();
+				.onConflictDoUpdate({ target: cars.id, set: { name: 'Hillclimb demo car', notes: DEMO_CAR_NOTES } });
 		});
 		await seedCorners(db, (await db.select({ id: users.id }).from(users).where(eq(users.email, 'engineer@linkwright.test')))[0].id);
 	} finally {

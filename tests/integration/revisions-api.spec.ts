@@ -159,3 +159,15 @@ describe('export and solve', () => {
 		expect(body.samples.length).toBeLessThan(21);
 	});
 });
+
+describe('counts in the lists', () => {
+	test("the car's corner list and the team's car list count what is there", async () => {
+		const revs = (await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json()).revisions;
+		const [corner] = (await (await viewer.fetch(`/api/v1/cars/${carId}/corners`)).json()).corners;
+		expect(corner.revisionCount).toBe(revs.length);
+		expect(corner.latestNumber).toBe(revs[0].number);
+		const cars = (await (await viewer.fetch('/api/v1/cars')).json()).cars;
+		expect(cars.find((c: { id: string }) => c.id === carId).cornerCount).toBe(1);
+		expect(cars.find((c: { id: string }) => c.id === DEMO_CAR_ID).cornerCount).toBe(2);
+	});
+});

@@ -2,7 +2,7 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
 import type { CarInput, CarPatch } from '$lib/schemas/car';
 import type { Database } from '../connect';
-import { cars, corners, memberships } from '../schema';
+import { cars, memberships } from '../schema';
 
 /** A team's cars by name, with their number of corners. */
 export function listCars(db: Database, teamId: string) {
@@ -13,7 +13,8 @@ export function listCars(db: Database, teamId: string) {
 			series: cars.series,
 			driveLayout: cars.driveLayout,
 			updatedAt: cars.updatedAt,
-			cornerCount: sql<number>`(select count(*)::int from ${corners} where ${corners.carId} = ${cars.id})`
+			// Written out in full: inside a one-table select Drizzle leaves column names unqualified.
+			cornerCount: sql<number>`(select count(*)::int from corners c where c.car_id = "cars"."id")`
 		})
 		.from(cars)
 		.where(eq(cars.teamId, teamId))

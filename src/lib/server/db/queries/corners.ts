@@ -12,8 +12,9 @@ export function cornersOfCar(db: Database, carId: string) {
 			position: corners.position,
 			kind: corners.kind,
 			baselineRevisionId: corners.baselineRevisionId,
-			revisionCount: sql<number>`(select count(*)::int from ${revisions} where ${revisions.cornerId} = ${corners.id})`,
-			latestNumber: sql<number | null>`(select max(${revisions.number}) from ${revisions} where ${revisions.cornerId} = ${corners.id})`
+			// Written out in full: inside a one-table select Drizzle leaves column names unqualified.
+			revisionCount: sql<number>`(select count(*)::int from revisions r where r.corner_id = "corners"."id")`,
+			latestNumber: sql<number | null>`(select max(r.number) from revisions r where r.corner_id = "corners"."id")`
 		})
 		.from(corners)
 		.where(eq(corners.carId, carId))
