@@ -1,0 +1,276 @@
+// Pure helpers for the measure charts: points from solve samples, ticks, read-out values, paths, CSV.
+// Client-safe: no DOM, no Svelte. Units as in shared/geometry-format.md (mm, degrees).
+
+import type { MeasureKey, SweepKey } from './measures';
+
+/** One plotted point; y null = no value (a gap in the line). */
+export interface ChartPoint {
+	x: number;
+	y: number | null;
+}
+
+/** One line on a chart. */
+export interface Series {
+	id: string;
+	label: string;
+	/** ascending in x */
+	points: ChartPoint[];
+	/** drawn dashed and translucent (a reference revision) */
+	ghost?: boolean;
+	/** any CSS colour; default from the chart palette */
+	colour?: string;
+}
+
+/** A target band: the curve should stay inside y0…y1 over x0…x1. */
+export interface Band {
+	x0: number;
+	x1: number;
+	y0: number;
+	y1: number;
+	label?: string;
+	/** true = met, false = broken, undefined = not judged */
+	pass?: boolean;
+}
+
+/** Two x values closer than this are the same sweep position (mm or degrees). */
+const SAME_X = 1e-9;
+
+/** The {x, y} points of `measureKey` against `sweepKey` from contract samples; non-finite or missing y becomes null. */
+export function samplesToPoints<S extends object>(samples: readonly S[], sweepKey: SweepKey, measureKey: MeasureKey): ChartPoint[] {
+	const out: ChartPoint[] = [];
+	for (const s of samples) {
+		const row = s as Record<string, unknown>;
+		const x = row[sweepKey];
+		if (typeof x !== 'number' || !Number.isFinite(x)) continue;
+		const y = row[measureKey];
+		out.push({ x, y: typeof y === 'number' && Number.isFinite(y) ? y : null });
+	}
+	return out.sort((a, b) => a.x - b.x);
+}
+
+/** A 1, 2 or 5 × 10ⁿ step giving the interval count nearest `count` over `span` (> 0); thresholds as in d3-array's tickIncrement. */
+export function niceStep(span: number, count = 5): number {
+	if (!(span > 0) || !Number.isFinite(span)) return 1;
+	const raw = span / Math.max(1, count);
+	const mag = 10 ** Math.floor(Math.log10(raw));
+	const f = raw / mag;
+	const nice = f >= Math.SQRT1_2 * 10 ? 10 : f >= Math.sqrt(10) ? 5 : f >= Math.SQRT2 ? 2 : 1;
+	return nice * mag;
+}
+
+/** lo…hi widened to whole nice steps; a zero-width range is opened up around its value first. */
+export function niceDomain(lo: number, hi: number, count = 5): [number, number] {
+	if (hi < lo) [lo, hi] = [hi, lo];
+	if (hi - lo < 1e-12) {
+		const pad = Math.abs(lo) > 1e-9 ? Math.abs(lo) * 0.1 : 1;
+		lo -= pad;
+		hi += pad;
+	}
+	const step = niceStep(hi - lo, count);
+	return [snapDown(lo, step), snapUp(hi, step)];
+}
+
+/** The nice tick values inside lo…hi (inclusive), about `count` intervals apart. */
+export function ticks(lo: number, hi: number, count = 5): number[] {
+	if (!(hi > lo) || !Number.isFinite(lo) || !Number.isFinite(hi)) return Number.isFinite(lo) ? [lo] : [];
+	const step = niceStep(hi - lo, count);
+	const out: number[] = [];
+	const first = Math.ceil(lo / step - 1e-9);
+	const last = Math.floor(hi / step + 1e-9);
+	for (let i = first; i <= last; i++) out.push(clean(i * step));
+	return out;
+}
+
+/** Decimals needed to print ticks `step` apart without losing a digit. */
+export function tickDecimals(step: number): number {
+	if (!(step > 0)) return 0;
+	for (let d = 0; d < 10; d++) if (Math.abs(Math.round(step * 10 ** d) - step * 10 ** d) < 1e-6) return d;
+	return 10;
+}
+
+/** y of `points` (ascending x) at x by linear interpolation; null outside the points' range or across a gap. */
+export function valueAt(points: readonly ChartPoint[], x: number): number | null {
+	const n = points.length;
+	if (n === 0 || !Number.isFinite(x)) return null;
+	if (x < points[0].x - SAME_X || x > points[n - 1].x + SAME_X) return null;
+	let lo = 0;
+	let hi = n - 1;
+	while (hi - lo > 1) {
+		const mid = (lo + hi) >> 1;
+		if (points[mid].x <= x) lo = mid;
+		else hi = mid;
+	}
+	const a = points[lo];
+	const b = points[hi];
+	if (Math.abs(a.x - x) <= SAME_X) return a.y;
+	if (Math.abs(b.x - x) <= SAME_X) return b.y;
+	if (a.y === null || b.y === null) return null;
+	return a.y + ((b.y - a.y) * (x - a.x)) / (b.x - a.x);
+}
+
+/** The sorted, de-duplicated x positions of every series. */
+export function xGrid(series: readonly Series[]): number[] {
+	const xs = series.flatMap((s) => s.points.map((p) => p.x)).sort((a, b) => a - b);
+	const out: number[] = [];
+	for (const x of xs) if (out.length === 0 || x - out[out.length - 1] > SAME_X) out.push(x);
+	return out;
+}
+
+/** The value of sorted `grid` nearest to x; null for an empty grid. */
+export function nearest(grid: readonly number[], x: number): number | null {
+	if (grid.length === 0) return null;
+	let lo = 0;
+	let hi = grid.length - 1;
+	while (hi - lo > 1) {
+		const mid = (lo + hi) >> 1;
+		if (grid[mid] <= x) lo = mid;
+		else hi = mid;
+	}
+	return Math.abs(grid[lo] - x) <= Math.abs(grid[hi] - x) ? grid[lo] : grid[hi];
+}
+
+/** [min, max] of the finite values, or null when there are none. */
+export function extent(values: Iterable<number | null>): [number, number] | null {
+	let lo = Infinity;
+	let hi = -Infinity;
+	for (const v of values) {
+		if (v === null || !Number.isFinite(v)) continue;
+		if (v < lo) lo = v;
+		if (v > hi) hi = v;
+	}
+	return lo <= hi ? [lo, hi] : null;
+}
+
+/** True when the series has at least one plottable point. */
+export function hasData(series: readonly Series[]): boolean {
+	return series.some((s) => s.points.some((p) => p.y !== null && Number.isFinite(p.y)));
+}
+
+/** SVG path data of points through the scales sx, sy (px); a null y breaks the line. */
+export function linePath(points: readonly ChartPoint[], sx: (x: number) => number, sy: (y: number) => number): string {
+	let d = '';
+	let pen = false;
+	for (const p of points) {
+		if (p.y === null) {
+			pen = false;
+			continue;
+		}
+		d += `${pen ? 'L' : 'M'}${round2(sx(p.x))},${round2(sy(p.y))}`;
+		pen = true;
+	}
+	return d;
+}
+
+/** Whether every value of `points` with x in the band's x0…x1 lies in y0…y1; false when none fall in range or any is null. */
+export function withinBand(points: readonly ChartPoint[], band: Band): boolean {
+	const [x0, x1] = band.x0 <= band.x1 ? [band.x0, band.x1] : [band.x1, band.x0];
+	const [y0, y1] = band.y0 <= band.y1 ? [band.y0, band.y1] : [band.y1, band.y0];
+	let seen = 0;
+	for (const p of points) {
+		if (p.x < x0 - SAME_X || p.x > x1 + SAME_X) continue;
+		if (p.y === null || p.y < y0 - 1e-12 || p.y > y1 + 1e-12) return false;
+		seen++;
+	}
+	return seen > 0;
+}
+
+/** Default read-out decimals for a unit. */
+export function defaultDecimals(unit: string): number {
+	return unit === '°' ? 2 : unit === 'mm' ? 1 : unit === '%' ? 1 : 3;
+}
+
+/** v with fixed decimals, a true minus sign, and never "−0.00". */
+export function formatNumber(v: number, decimals: number): string {
+	const s = v.toFixed(decimals);
+	if (Number(s) === 0) return (0).toFixed(decimals);
+	return s.startsWith('-') ? `\u2212${s.slice(1)}` : s;
+}
+
+/** v with its unit for display ("−0.052°", "12.5 mm", "0.707", "24.1%"); "–" for null. */
+export function formatValue(v: number | null, unit: string, decimals = defaultDecimals(unit)): string {
+	if (v === null || !Number.isFinite(v)) return '–';
+	const n = formatNumber(v, decimals);
+	if (unit === '') return n;
+	return unit === 'mm' ? `${n} mm` : `${n}${unit}`;
+}
+
+/** An axis title with its unit in brackets; a dimensionless quantity shows "(–)". */
+export function axisTitle(label: string, unit: string): string {
+	return `${label} (${unit === '' ? '–' : unit})`;
+}
+
+/** A lower-case, hyphenated id made from a title ("Toe, bump steer" → "toe-bump-steer"). */
+export function slugify(title: string): string {
+	return (
+		title
+			.normalize('NFKD')
+			.replace(/[\u0300-\u036f]/g, '')
+			.toLowerCase()
+			.replace(/[^a-z0-9]+/g, '-')
+			.replace(/^-+|-+$/g, '') || 'chart'
+	);
+}
+
+/** Options of a CSV export. */
+export interface CsvOptions {
+	xLabel: string;
+	xUnit: string;
+	yLabel: string;
+	yUnit: string;
+	series: readonly Series[];
+}
+
+/** CSV text: one row per sweep position, the x column then one column per series (empty where a series has no sample); units in the header. */
+export function buildCsv({ xLabel, xUnit, yLabel, yUnit, series }: CsvOptions): string {
+	const header = [csvCell(`${xLabel} (${csvUnit(xUnit)})`), ...series.map((s) => csvCell(`${s.label}: ${yLabel} (${csvUnit(yUnit)})`))];
+	const lines = [header.join(',')];
+	const cursor = series.map(() => 0);
+	for (const x of xGrid(series)) {
+		const row = [csvNumber(x)];
+		series.forEach((s, i) => {
+			const pts = s.points;
+			while (cursor[i] < pts.length && pts[cursor[i]].x < x - SAME_X) cursor[i]++;
+			const p = pts[cursor[i]];
+			row.push(p && Math.abs(p.x - x) <= SAME_X && p.y !== null ? csvNumber(p.y) : '');
+		});
+		lines.push(row.join(','));
+	}
+	return lines.join('\r\n') + '\r\n';
+}
+
+/** A unit spelled in ASCII so every spreadsheet reads the header. */
+function csvUnit(unit: string): string {
+	return unit === '°' ? 'deg' : unit === '' ? '-' : unit;
+}
+
+/** A CSV field, quoted when it holds a comma, quote or line break. */
+function csvCell(s: string): string {
+	return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** A number for CSV: up to 6 decimals, no trailing zeros, no "-0". */
+function csvNumber(v: number): string {
+	const r = Number(v.toFixed(6));
+	return String(r === 0 ? 0 : r);
+}
+
+/** Round to 2 decimals (path coordinates in px). */
+function round2(v: number): number {
+	return Math.round(v * 100) / 100;
+}
+
+/** Floating noise off a tick value (0.30000000000000004 → 0.3). */
+function clean(v: number): number {
+	const r = Number(v.toPrecision(12));
+	return r === 0 ? 0 : r;
+}
+
+/** The largest multiple of step ≤ v. */
+function snapDown(v: number, step: number): number {
+	return clean(Math.floor(v / step + 1e-9) * step);
+}
+
+/** The smallest multiple of step ≥ v. */
+function snapUp(v: number, step: number): number {
+	return clean(Math.ceil(v / step - 1e-9) * step);
+}
