@@ -69,7 +69,9 @@ export async function seed(url: string) {
 					cgHeightMm: 480,
 					frontBrakeFraction: 0.7,
 					driveLayout: 'fwd',
-					notes: DEMO_CAR_NOTES
+					notes: DEMO_CAR_NOTES,
+					// The team's bump-steer target: toe change within ±0.10° over ±40 mm of travel.
+					targets: [{ measure: 'toe', basis: 'change', min: -0.1, max: 0.1, from: -40, to: 40 }]
 				})
 				.onConflictDoUpdate({ target: cars.id, set: { name: 'Hillclimb demo car', notes: DEMO_CAR_NOTES } });
 		});

@@ -1,18 +1,45 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { cornerInput } from '$lib/schemas/corner';
+import { targetSchema, targetsSchema } from '$lib/schemas/targets';
 import { db } from '$lib/server/db';
 import { recordAudit } from '$lib/server/db/queries/audit';
 import { cornersOfCar, createCorner } from '$lib/server/db/queries/corners';
+import { setCarTargets } from '$lib/server/db/queries/cars';
 import { parseForm } from '$lib/server/forms';
 import { can, requireCar } from '$lib/server/permissions';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const { car, role } = await requireCar(event, event.params.carId, 'view');
-	return { car, corners: await cornersOfCar(db, car.id), canEdit: can(role, 'edit') };
+	return { car, targets: targetsSchema.catch([]).parse(car.targets), corners: await cornersOfCar(db, car.id), canEdit: can(role, 'edit') };
 };
 
+/** Numbers from the target form; a decimal comma is accepted. */
+const numberFields = ['min', 'max', 'from', 'to'] as const;
+
 export const actions: Actions = {
+	addTarget: async (event) => {
+		const { car } = await requireCar(event, event.params.carId, 'edit');
+		const form = Object.fromEntries(await event.request.formData()) as Record<string, string>;
+		const raw: Record<string, unknown> = { ...form };
+		for (const k of numberFields) raw[k] = form[k] === undefined || form[k].trim() === '' ? undefined : Number(form[k].replace(',', '.'));
+		const parsed = targetSchema.safeParse(raw);
+		if (!parsed.success) return fail(400, { targetError: `${parsed.error.issues[0].path.join('.')}: ${parsed.error.issues[0].message}` });
+		const targets = [...targetsSchema.catch([]).parse(car.targets), parsed.data];
+		await setCarTargets(db, car.id, targets);
+		await recordAudit(db, { teamId: car.teamId, actorId: event.locals.user!.id, action: 'car.targets_changed', subjectType: 'car', subjectId: car.id });
+		return { targetSaved: true };
+	},
+	removeTarget: async (event) => {
+		const { car } = await requireCar(event, event.params.carId, 'edit');
+		const index = Number((await event.request.formData()).get('index'));
+		const targets = targetsSchema.catch([]).parse(car.targets);
+		if (!Number.isInteger(index) || index < 0 || index >= targets.length) return fail(400, { targetError: 'That target is no longer there.' });
+		targets.splice(index, 1);
+		await setCarTargets(db, car.id, targets);
+		await recordAudit(db, { teamId: car.teamId, actorId: event.locals.user!.id, action: 'car.targets_changed', subjectType: 'car', subjectId: car.id });
+		return { targetSaved: true };
+	},
 	addCorner: async (event) => {
 		const { car } = await requireCar(event, event.params.carId, 'edit');
 		const parsed = parseForm(await event.request.formData(), cornerInput);

@@ -50,3 +50,8 @@ export async function updateCar(db: Database, carId: string, patch: CarPatch) {
 		.returning();
 	return row;
 }
+
+/** Replaces a car's targets (validated by the caller). */
+export async function setCarTargets(db: Database, carId: string, targets: unknown[]) {
+	await db.update(cars).set({ targets, updatedAt: sql`now()` }).where(eq(cars.id, carId));
+}

@@ -1,0 +1,72 @@
+// Revision A against revision B: which points moved, and how each figure changed through heave.
+import type { CornerGeometry } from '$lib/schemas/geometry';
+import { judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure } from '$lib/schemas/targets';
+import type { Sample } from '$lib/server/kinematics';
+import { solveCorner } from './solve';
+
+export const COMPARE_SWEEP = { sweep: 'heave' as const, from: -50, to: 50, step: 1 };
+export const COMPARE_POSITIONS = [-50, -25, 0, 25, 50];
+/** travel range of the one-line summaries (mm) */
+export const SUMMARY_RANGE = 40;
+
+/** Points that differ between A and B (mm), largest move first. */
+export function movedPoints(a: CornerGeometry, b: CornerGeometry) {
+	const names = [...new Set([...Object.keys(a.points), ...Object.keys(b.points)])];
+	return names
+		.map((name) => {
+			const p = a.points[name];
+			const q = b.points[name];
+			if (!p || !q) return { name, dx: null, dy: null, dz: null, d: null, only: p ? 'a' : 'b' };
+			const [dx, dy, dz] = [q[0] - p[0], q[1] - p[1], q[2] - p[2]];
+			return { name, dx, dy, dz, d: Math.hypot(dx, dy, dz), only: null };
+		})
+		.filter((m) => m.d === null || m.d > 1e-6)
+		.sort((m, n) => (n.d ?? Infinity) - (m.d ?? Infinity));
+}
+
+/** The value of a measure at a travel position, or null. */
+function at(samples: Sample[], travel: number, key: TargetMeasure): number | null {
+	const s = samples.find((x) => x.travel === travel);
+	const v = s?.[key];
+	return typeof v === 'number' ? v : null;
+}
+
+/** The spread of (value − value at design) over ±range, or null when the sweep did not reach it. */
+function changeSpread(samples: Sample[], key: TargetMeasure, range: number) {
+	const r = judge(samples, { measure: key, basis: 'change', min: -Infinity, max: Infinity, from: -range, to: range });
+	return r.lo === null || r.hi === null || r.incomplete ? null : r.hi - r.lo;
+}
+
+/** A plain sentence for one measure, e.g. "Toe change over ±40 mm goes from 0.03° to 2.31°". */
+function summary(key: TargetMeasure, a: Sample[], b: Sample[]) {
+	const { label, unit } = measureWords(key);
+	const d = unit === '°' ? 2 : unit === '' ? 3 : 1;
+	const sa = changeSpread(a, key, SUMMARY_RANGE);
+	const sb = changeSpread(b, key, SUMMARY_RANGE);
+	if (sa === null || sb === null) return `${label}: the sweep does not reach ±${SUMMARY_RANGE} mm for both revisions.`;
+	const same = Math.abs(sb - sa) < 0.5 * 10 ** -d;
+	return `${label} change over ±${SUMMARY_RANGE} mm ${same ? 'stays at' : 'goes from'} ${sa.toFixed(d)}${unit}${same ? '' : ` to ${sb.toFixed(d)}${unit}`}.`;
+}
+
+/** Everything the compare page shows, solved on the server. */
+export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: Target[]) {
+	const sa = solveCorner(a, COMPARE_SWEEP);
+	const sb = solveCorner(b, COMPARE_SWEEP);
+	const figures = TARGET_MEASURES.map((key) => ({
+		key,
+		...measureWords(key),
+		rows: COMPARE_POSITIONS.map((travel) => {
+			const va = at(sa.samples, travel, key);
+			const vb = at(sb.samples, travel, key);
+			return { travel, a: va, b: vb, delta: va === null || vb === null ? null : vb - va };
+		}),
+		summary: summary(key, sa.samples, sb.samples)
+	}));
+	return {
+		moved: movedPoints(a, b),
+		figures,
+		a: sa,
+		b: sb,
+		targets: targets.map((t) => ({ a: judge(sa.samples, t), b: judge(sb.samples, t) }))
+	};
+}
