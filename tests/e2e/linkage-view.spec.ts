@@ -78,12 +78,16 @@ test('the 3-D linkage view renders, follows the travel slider and the preset vie
 	await expect(page.getByRole('button', { name: 'Play through the travel' })).toBeVisible();
 
 	await slider.fill('16');
-	await page.getByRole('row', { name: /steer\.outer/ }).focus();
 	await page.getByRole('button', { name: 'Three-quarter 3-D view' }).click();
+	await page.getByRole('row', { name: /steer\.outer/ }).focus();
 	mkdirSync('test-results/screens', { recursive: true });
 	await page.screenshot({ path: 'test-results/screens/linkage-view.png', fullPage: true });
 	await page.getByRole('button', { name: 'Front view, looking rearward' }).click();
 	await page.screenshot({ path: 'test-results/screens/linkage-view-front.png', fullPage: true });
+	// dark theme: the view re-reads the theme colours
+	await page.evaluate(() => document.documentElement.classList.add('dark'));
+	await page.getByRole('button', { name: 'Three-quarter 3-D view' }).click();
+	await page.screenshot({ path: 'test-results/screens/linkage-view-dark.png', fullPage: true });
 
 	expect(problems).toEqual([]);
 });

@@ -119,6 +119,8 @@ const SPRING_TURNS = 7;
 const SPRING_SEGMENTS = 160;
 const CIRCLE_SEGMENTS = 72;
 const LABEL_PX = 13; // label text height in CSS pixels
+const GIZMO_PX = 170; // CSS pixels: side of the axes-triad inset
+const GIZMO_HALF = 2.1; // triad inset half-size in arrow lengths (room for the labels)
 
 /** Links of each kind: pairs of point names, or a derived upright point. */
 const ARMS: Record<CornerKind, [string, string][]> = {
@@ -219,6 +221,7 @@ class RevisionRig {
 	private rcLine: Line;
 	private contact: Mesh;
 	private labels: Sprite[] = [];
+	private halo: Mesh;
 	private world = new Map<string, Vector3>();
 
 	constructor(
@@ -266,6 +269,12 @@ class RevisionRig {
 			this.spring = new Line(g, new LineBasicMaterial({ color: look.link, transparent: look.ghost, opacity: look.opacity }));
 			this.group.add(this.spring);
 		}
+		// a soft halo around the highlighted point, so it reads even where it sits on an accent-coloured arm
+		this.halo = new Mesh(shared.sphere, new MeshBasicMaterial({ color: highlightColor, transparent: true, opacity: 0.22, depthWrite: false }));
+		this.halo.scale.setScalar(PIVOT_RADIUS * 3.6);
+		this.halo.renderOrder = 6;
+		this.halo.visible = false;
+		this.group.add(this.halo);
 		this.tyre = this.makeTyre(radius);
 		this.group.add(this.tyre);
 
@@ -344,6 +353,9 @@ class RevisionRig {
 			(m.material as MeshLambertMaterial).color.copy(hot ? this.highlightColor : m.userData.color);
 			m.renderOrder = hot ? 5 : 0;
 		}
+		const hot = highlight ? this.joints.get(highlight) : undefined;
+		this.halo.visible = !!hot?.visible && !this.look.ghost;
+		if (hot) this.halo.position.copy(hot.position);
 		for (const r of this.rods) {
 			const a = typeof r.a === 'string' ? this.world.get(r.a)! : r.a();
 			if (!a) {
@@ -449,7 +461,7 @@ function viewDirection(view: ViewPreset, side: number): Vector3 {
 		case 'top':
 			return new Vector3(0, 1, -1e-4).normalize(); // from above, forward at the top of the screen
 		case 'iso':
-			return new Vector3(side * 0.85, 0.55, 1).normalize();
+			return new Vector3(-side * 0.8, 0.6, 1).normalize(); // from ahead, above and inboard: the linkage in front of the wheel
 	}
 }
 
@@ -458,6 +470,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 	const renderer = new WebGLRenderer({ canvas, antialias: true, preserveDrawingBuffer: true, alpha: false });
 	renderer.setPixelRatio(Math.min(window.devicePixelRatio || 1, 2));
 	renderer.outputColorSpace = SRGBColorSpace;
+	renderer.autoClear = false; // draw() clears once, then overlays the axes triad
 
 	const scene = new Scene();
 	const camera = new OrthographicCamera(-1, 1, 1, -1, -100000, 100000);
@@ -500,6 +513,43 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		});
 	}
 
+	// The vehicle-axes triad lives in its own small scene, drawn in the lower-left corner with the main camera's
+	// orientation: always visible, never in the way of the linkage or the roll centre.
+	const gizmo = new Scene();
+	const gizmoCamera = new OrthographicCamera(-GIZMO_HALF, GIZMO_HALF, GIZMO_HALF, -GIZMO_HALF, -10, 10);
+	gizmo.add(new AmbientLight(0xffffff, 2.2));
+
+	/** (Re)build the triad with the current palette: unit arrows along vehicle x, y and z. */
+	function buildGizmo() {
+		for (const child of [...gizmo.children]) {
+			if (child instanceof AmbientLight) continue;
+			gizmo.remove(child);
+			disposeTree(child, keep);
+		}
+		const mat = new MeshBasicMaterial({ color: palette.ink });
+		const o = new Vector3();
+		const axes: [Vec3, string][] = [
+			[[1, 0, 0], 'x forward'],
+			[[0, 1, 0], 'y left'],
+			[[0, 0, 1], 'z up']
+		];
+		const perPx = (2 * GIZMO_HALF) / GIZMO_PX;
+		for (const [d, label] of axes) {
+			const tip = toWorld(d, new Vector3());
+			const shaft = new Mesh(shared.cylinder, mat);
+			placeRod(shaft, o.clone(), tip.clone().multiplyScalar(0.82), 0.035);
+			const head = new Mesh(new CylinderGeometry(0, 0.09, 0.22, 12), mat);
+			head.position.copy(tip).multiplyScalar(0.89);
+			head.quaternion.setFromUnitVectors(Y_AXIS, tip);
+			const text = makeLabel(label, palette.ink, new Set());
+			const h = LABEL_PX * 1.25 * perPx;
+			text.center.set(0.5, 0.5);
+			text.scale.set(h * text.userData.aspect, h, 1);
+			text.position.copy(tip).multiplyScalar(1.32);
+			gizmo.add(shaft, head, text);
+		}
+	}
+
 	function draw() {
 		// labels keep a constant on-screen size: world units per CSS pixel of the orthographic view
 		const perPx = (camera.top - camera.bottom) / camera.zoom / height;
@@ -507,7 +557,19 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			const h = LABEL_PX * 1.4 * perPx;
 			s.scale.set(h * s.userData.aspect, h, 1);
 		}
+		renderer.setScissorTest(false);
+		renderer.setViewport(0, 0, width, height);
+		renderer.clear();
 		renderer.render(scene, camera);
+		gizmoCamera.quaternion.copy(camera.quaternion);
+		gizmoCamera.position.set(0, 0, 5).applyQuaternion(camera.quaternion);
+		renderer.clearDepth();
+		renderer.setScissorTest(true);
+		renderer.setScissor(4, 4, GIZMO_PX, GIZMO_PX);
+		renderer.setViewport(4, 4, GIZMO_PX, GIZMO_PX);
+		renderer.render(gizmo, gizmoCamera);
+		renderer.setScissorTest(false);
+		renderer.setViewport(0, 0, width, height);
 	}
 
 	function applyFrustum() {
@@ -519,7 +581,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		camera.updateProjectionMatrix();
 	}
 
-	/** Ground grid, centreline and the vehicle-axes triad with its labels, around the corner at frame 0. */
+	/** Ground grid and centreline around the corner at frame 0. */
 	function buildStatics(f: Frame) {
 		scene.remove(statics);
 		for (const s of statics.children) if (s instanceof Sprite) sprites.delete(s);
@@ -543,29 +605,9 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		cl.computeLineDistances();
 		statics.add(cl);
 		const clLabel = makeLabel('centreline', palette.muted, sprites);
-		clLabel.position.copy(toWorld([wc[0] + span / 2 - 260, 0, 8], new Vector3()));
+		clLabel.center.set(1.04, 0.5); // text ends at the line, so it stays clear of the roll centre in the front view
+		clLabel.position.copy(toWorld([wc[0] + span / 2 - 60, 0, 0], new Vector3()));
 		statics.add(clLabel);
-		// triad on the centreline behind the corner: x forward, y left, z up
-		const origin: Vec3 = [wc[0] - 420, 0, 0];
-		const axisLen = 160;
-		const axes: [Vec3, string][] = [
-			[[1, 0, 0], 'x forward'],
-			[[0, 1, 0], 'y left'],
-			[[0, 0, 1], 'z up']
-		];
-		const o = toWorld(origin, new Vector3());
-		const axisMat = new MeshLambertMaterial({ color: palette.ink });
-		for (const [d, label] of axes) {
-			const tip = toWorld([origin[0] + d[0] * axisLen, origin[1] + d[1] * axisLen, origin[2] + d[2] * axisLen], new Vector3());
-			const shaft = new Mesh(shared.cylinder, axisMat);
-			placeRod(shaft, o.clone(), tip.clone(), 3);
-			const head = new Mesh(new CylinderGeometry(0, 9, 28, 12), axisMat);
-			head.position.copy(tip);
-			head.quaternion.setFromUnitVectors(Y_AXIS, tip.clone().sub(o).normalize());
-			const text = makeLabel(label, palette.ink, sprites);
-			text.position.copy(tip).addScaledVector(tip.clone().sub(o).normalize(), 22);
-			statics.add(shaft, head, text);
-		}
 		scene.add(statics);
 	}
 
@@ -577,6 +619,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		if (ghost) scene.remove(ghost.group);
 		current = ghost = null;
 		renderer.setClearColor(palette.sunken, 1);
+		buildGizmo();
 		if (!data || data.frames.length === 0) {
 			scene.remove(statics);
 			requestRender();
@@ -696,6 +739,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			current?.dispose(keep, sprites);
 			ghost?.dispose(keep, sprites);
 			disposeTree(statics, keep);
+			disposeTree(gizmo, keep);
 			for (const g of keep) g.dispose();
 			renderer.dispose();
 		}
