@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { expect, test, type Locator, type Page } from '@playwright/test';
 
 /** The [x, y] pairs of an SVG path made of M and L commands. */
@@ -49,7 +49,7 @@ test('toe and camber charts overlay stock and rack-moved curves with a read-out 
 	const box = (await toe.boundingBox())!;
 	await page.mouse.move(box.x + box.width * 0.75, box.y + box.height * 0.4);
 	const readout = page.getByTestId('chart-toe-readout');
-	await expect(readout).toContainText('at');
+	await expect(readout).toContainText('At');
 	await expect(readout.locator('[data-series="stock"]')).toContainText(/-?\u2212?\d+\.\d{3}°/);
 	await expect(readout.locator('[data-series="rack-moved"]')).toContainText(/\d+\.\d{3}°/);
 	const x0 = Number.parseFloat(((await readout.getByTestId('readout-x').textContent()) ?? '').replace('\u2212', '-'));
@@ -63,6 +63,21 @@ test('toe and camber charts overlay stock and rack-moved curves with a read-out 
 	await page.keyboard.press('ArrowLeft');
 	await page.keyboard.press('ArrowLeft');
 	await expect(readout.getByTestId('readout-x')).toHaveText(`${x0 - 1} mm`);
+	// moving the crosshair does not touch the plotted paths
+	const pathChanges = await toe.evaluate(async (svg) => {
+		let n = 0;
+		const seen = new MutationObserver((records) => (n += records.filter((r) => (r.target as Element).tagName === 'path').length));
+		seen.observe(svg, { subtree: true, attributes: true });
+		const target = svg.querySelector('.cursor-crosshair')!;
+		const r = target.getBoundingClientRect();
+		for (let i = 0; i < 40; i++) {
+			target.dispatchEvent(new PointerEvent('pointermove', { bubbles: true, clientX: r.left + (r.width * i) / 40, clientY: r.top + r.height / 2 }));
+			await new Promise((done) => requestAnimationFrame(done));
+		}
+		seen.disconnect();
+		return n;
+	});
+	expect(pathChanges).toBe(0);
 	await page.mouse.move(box.x + box.width * 0.75, box.y + box.height * 0.4);
 	await page.screenshot({ path: 'test-results/screens/charts.png', fullPage: true });
 
@@ -81,17 +96,21 @@ test('toe and camber charts overlay stock and rack-moved curves with a read-out 
 	expect(svgText.startsWith('<svg')).toBe(true);
 	expect(svgText).toContain('data-series="rack-moved"');
 	expect(svgText).toContain('Toe (°)');
+	expect(svgText).not.toContain('var(--');
+	writeFileSync('test-results/screens/charts-export.svg', svgText);
 
 	const png = await download(page, exports.getByRole('button', { name: 'PNG' }));
 	expect(png.name).toBe('toe.png');
 	expect(png.bytes.subarray(1, 4).toString('ascii')).toBe('PNG');
 	expect(png.bytes.length).toBeGreaterThan(5000);
+	writeFileSync('test-results/screens/charts-export.png', png.bytes);
 
 	// an empty series says so instead of drawing
 	await expect(page.getByTestId('chart-empty-example-empty')).toHaveText('No data');
 
 	await page.evaluate(() => document.documentElement.classList.add('dark'));
-	await page.mouse.move(box.x + box.width * 0.3, box.y + box.height * 0.5);
+	await page.mouse.move(box.x + box.width * 0.3, box.y + box.height * 0.5, { steps: 4 });
+	await expect(readout).toContainText('At');
 	await page.screenshot({ path: 'test-results/screens/charts-dark.png', fullPage: true });
 	expect(problems).toEqual([]);
 });
