@@ -106,3 +106,19 @@ test('the strut corner draws too', async ({ page }) => {
 	await page.screenshot({ path: 'test-results/screens/linkage-view-strut.png', fullPage: true });
 	expect(problems).toEqual([]);
 });
+
+test('without WebGL the view says so instead of failing', async ({ page }) => {
+	const problems: string[] = [];
+	page.on('pageerror', (e) => problems.push(e.message));
+	await page.addInitScript(() => {
+		const original = HTMLCanvasElement.prototype.getContext;
+		HTMLCanvasElement.prototype.getContext = function (this: HTMLCanvasElement, id: string, ...rest: unknown[]) {
+			if (id === 'webgl2' || id === 'webgl') return null;
+			return (original as (...a: unknown[]) => RenderingContext | null).call(this, id, ...rest);
+		} as typeof original;
+	});
+	await page.goto('/dev/linkage');
+	await expect(page.getByRole('status').filter({ hasText: 'needs WebGL 2' })).toBeVisible();
+	await expect(page.getByRole('button', { name: 'Front view, looking rearward' })).toBeDisabled();
+	expect(problems).toEqual([]);
+});

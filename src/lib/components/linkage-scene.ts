@@ -119,6 +119,7 @@ const SPRING_TURNS = 7;
 const SPRING_SEGMENTS = 160;
 const CIRCLE_SEGMENTS = 72;
 const LABEL_PX = 13; // label text height in CSS pixels
+const REFIT_MM = 200; // a wheel centre moved further than this is another corner: frame it afresh
 const GIZMO_PX = 170; // CSS pixels: side of the axes-triad inset
 const GIZMO_HALF = 2.1; // triad inset half-size in arrow lengths (room for the labels)
 
@@ -518,6 +519,19 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 	const gizmo = new Scene();
 	const gizmoCamera = new OrthographicCamera(-GIZMO_HALF, GIZMO_HALF, GIZMO_HALF, -GIZMO_HALF, -10, 10);
 	gizmo.add(new AmbientLight(0xffffff, 2.2));
+	let gizmoLabels: { sprite: Sprite; tip: Vector3 }[] = [];
+	const viewSpace = new Vector3();
+	const inverse = new Quaternion();
+
+	/** Labels at the arrow tips; an axis pointing at the viewer gets its label just below the origin instead. */
+	function placeGizmoLabels() {
+		inverse.copy(camera.quaternion).invert();
+		for (const { sprite, tip } of gizmoLabels) {
+			viewSpace.copy(tip).applyQuaternion(inverse);
+			if (Math.hypot(viewSpace.x, viewSpace.y) > 0.35) sprite.position.copy(tip).multiplyScalar(1.32);
+			else sprite.position.set(0, -0.42, 0).applyQuaternion(camera.quaternion);
+		}
+	}
 
 	/** (Re)build the triad with the current palette: unit arrows along vehicle x, y and z. */
 	function buildGizmo() {
@@ -534,6 +548,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			[[0, 0, 1], 'z up']
 		];
 		const perPx = (2 * GIZMO_HALF) / GIZMO_PX;
+		gizmoLabels = [];
 		for (const [d, label] of axes) {
 			const tip = toWorld(d, new Vector3());
 			const shaft = new Mesh(shared.cylinder, mat);
@@ -545,7 +560,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			const h = LABEL_PX * 1.25 * perPx;
 			text.center.set(0.5, 0.5);
 			text.scale.set(h * text.userData.aspect, h, 1);
-			text.position.copy(tip).multiplyScalar(1.32);
+			gizmoLabels.push({ sprite: text, tip });
 			gizmo.add(shaft, head, text);
 		}
 	}
@@ -562,6 +577,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		renderer.clear();
 		renderer.render(scene, camera);
 		gizmoCamera.quaternion.copy(camera.quaternion);
+		placeGizmoLabels();
 		gizmoCamera.position.set(0, 0, 5).applyQuaternion(camera.quaternion);
 		renderer.clearDepth();
 		renderer.setScissorTest(true);
@@ -711,9 +727,12 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 
 	return {
 		setData(next) {
-			const kindChanged = data?.kind !== next.kind;
+			// a point edit keeps the camera; another kind of corner, or another corner altogether, is framed afresh
+			const before = data?.frames[0]?.wheel_centre;
+			const after = next.frames[0]?.wheel_centre;
+			const moved = !before || !after || Math.hypot(after[0] - before[0], after[1] - before[1], after[2] - before[2]) > REFIT_MM;
+			if (data?.kind !== next.kind || moved) fitted = false;
 			data = next;
-			if (kindChanged) fitted = false;
 			rebuild();
 		},
 		setPose(index, highlight) {
