@@ -45,7 +45,8 @@ function summary(key: TargetMeasure, a: Sample[], b: Sample[]) {
 	const sb = changeSpread(b, key, SUMMARY_RANGE);
 	if (sa === null || sb === null) return `${label}: the sweep does not reach ±${SUMMARY_RANGE} mm for both revisions.`;
 	const same = Math.abs(sb - sa) < 0.5 * 10 ** -d;
-	return `${label} change over ±${SUMMARY_RANGE} mm ${same ? 'stays at' : 'goes from'} ${sa.toFixed(d)}${unit}${same ? '' : ` to ${sb.toFixed(d)}${unit}`}.`;
+	const u = unit === 'mm' ? ' mm' : unit;
+	return `${label} change over ±${SUMMARY_RANGE} mm ${same ? 'stays at' : 'goes from'} ${sa.toFixed(d)}${u}${same ? '' : ` to ${sb.toFixed(d)}${u}`}.`;
 }
 
 /** Everything the compare page shows, solved on the server. */

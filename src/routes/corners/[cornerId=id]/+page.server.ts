@@ -1,6 +1,7 @@
 import { error, fail, isHttpError } from '@sveltejs/kit';
 import { z } from 'zod';
 import { cornerGeometrySchema, formatIssue } from '$lib/schemas/geometry';
+import { targetsSchema } from '$lib/schemas/targets';
 import { saveRevision, vehicleFromCar } from '$lib/server/corners/revisions';
 import { solveCorner } from '$lib/server/corners/solve';
 import { db } from '$lib/server/db';
@@ -24,6 +25,7 @@ export const load: PageServerLoad = async (event) => {
 		latestNumber: latest?.number ?? 0,
 		revisions: await revisionsOfCorner(db, corner.id),
 		vehicle: vehicleFromCar(car, corner),
+		targets: targetsSchema.catch([]).parse(car.targets),
 		design,
 		canEdit: can(role, 'edit')
 	};
