@@ -63,12 +63,14 @@ test('the 3-D linkage view renders, follows the travel slider and the preset vie
 	await expect(position).toHaveText(/Travel −50\.0 mm/);
 
 	// focusing a point row highlights it; the preset views change the picture
+	mkdirSync('test-results/screens', { recursive: true });
 	await page.getByRole('row', { name: /upper\.outer/ }).focus();
 	for (const name of ['Front view, looking rearward', 'Side view, from outboard', 'Top view, forward up', 'Three-quarter 3-D view']) {
 		const before = (await canvasStats(page)).hash;
 		await page.getByRole('button', { name }).click();
 		await expect(page.getByRole('button', { name })).toHaveAttribute('aria-pressed', 'true');
 		await expect.poll(async () => (await canvasStats(page)).hash).not.toBe(before);
+		await canvas.screenshot({ path: `test-results/screens/linkage-view-${name.split(' ')[0].toLowerCase()}.png` });
 	}
 
 	// play runs through the travel and pauses again
