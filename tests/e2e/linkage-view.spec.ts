@@ -91,6 +91,12 @@ test('the 3-D linkage view renders, follows the travel slider and the preset vie
 	await page.getByRole('button', { name: 'Three-quarter 3-D view' }).click();
 	await page.screenshot({ path: 'test-results/screens/linkage-view-dark.png', fullPage: true });
 
+	// new data in the same view (client-side navigation to another corner): redrawn, not remounted
+	const darkHash = (await canvasStats(page)).hash;
+	await page.getByRole('link', { name: 'Road strut front left' }).click();
+	await expect(canvas).toHaveAttribute('aria-label', /strut linkage/);
+	await expect.poll(async () => (await canvasStats(page)).hash).not.toBe(darkHash);
+
 	expect(problems).toEqual([]);
 });
 
@@ -120,7 +126,7 @@ test('without WebGL the view says so instead of failing', async ({ page }) => {
 		} as typeof original;
 	});
 	await page.goto('/dev/linkage');
-	await expect(page.getByRole('status').filter({ hasText: 'needs WebGL 2' })).toBeVisible();
+	await expect(page.getByRole('status').filter({ hasText: 'needs WebGL 2' })).toBeVisible({ timeout: 15_000 });
 	await expect(page.getByRole('button', { name: 'Front view, looking rearward' })).toBeDisabled();
 	expect(problems).toEqual([]);
 });

@@ -724,6 +724,8 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 	}
 
 	controls.addEventListener('change', requestRender);
+	// three restores its own GL state after a lost context; we only need to draw again
+	canvas.addEventListener('webglcontextrestored', requestRender);
 
 	return {
 		setData(next) {
@@ -760,7 +762,9 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			disposeTree(statics, keep);
 			disposeTree(gizmo, keep);
 			for (const g of keep) g.dispose();
+			canvas.removeEventListener('webglcontextrestored', requestRender);
 			renderer.dispose();
+			renderer.forceContextLoss(); // browsers cap live contexts: free this one now, not at garbage collection
 		}
 	};
 }
