@@ -2,13 +2,17 @@
 // Runs every bench module in turn and prints its figures (`npm run bench`). Add new benches to BENCHES.
 
 import * as kinematics from './kinematics';
+import * as workspace from './workspace';
 
 /** A bench module: a name and a function that prints its figures. */
 interface Bench {
 	run: () => void | Promise<void>;
 }
 
-const BENCHES: [string, Bench][] = [['kinematics', kinematics]];
+const BENCHES: [string, Bench][] = [
+	['kinematics', kinematics],
+	['workspace', workspace]
+];
 
 for (const [name, bench] of BENCHES) {
 	console.log(`\n== ${name}`);
