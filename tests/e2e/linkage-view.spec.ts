@@ -73,6 +73,12 @@ test('the 3-D linkage view renders, follows the travel slider and the preset vie
 		await canvas.screenshot({ path: `test-results/screens/linkage-view-${name.split(' ')[0].toLowerCase()}.png` });
 	}
 
+	// the canvas takes the keyboard: Shift + arrow orbits
+	const beforeKeys = (await canvasStats(page)).hash;
+	await canvas.focus();
+	for (let i = 0; i < 4; i++) await page.keyboard.press('Shift+ArrowLeft');
+	await expect.poll(async () => (await canvasStats(page)).hash).not.toBe(beforeKeys);
+
 	// play runs through the travel and pauses again
 	await page.getByRole('button', { name: 'Play through the travel' }).click();
 	await expect(position).not.toHaveText(/Travel −50\.0 mm/);

@@ -478,6 +478,9 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 	const controls = new OrbitControls(camera, canvas);
 	controls.enableDamping = false; // damping needs a frame loop; we render only on change
 	controls.zoomToCursor = true;
+	controls.listenToKeyEvents(canvas); // arrow keys pan, Shift + arrows orbit, when the canvas has focus
+	controls.keyPanSpeed = 20;
+	controls.keyRotateSpeed = 10; // about 6° a press on a 500-px view
 
 	const shared: SharedGeometry = {
 		sphere: new SphereGeometry(1, 20, 14),
