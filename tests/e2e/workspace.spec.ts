@@ -72,3 +72,17 @@ test('pages carry no console errors for the viewer either', async ({ page }) => 
 	}
 	expect(errors).toEqual([]);
 });
+
+test('a study keeps the sweep settings and overlays and reopens them', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	await page.getByTestId('sweep-kind').selectOption('roll');
+	await page.getByLabel('Study name').fill('roll check');
+	await page.getByRole('button', { name: 'Save study' }).click();
+	await expect(page.getByTestId('study-message')).toHaveText('Saved study “roll check”.');
+	await page.reload();
+	await expect(page.getByTestId('sweep-kind')).toHaveValue('heave');
+	await page.getByTestId('open-study').selectOption({ label: 'roll check' });
+	await expect(page.getByTestId('sweep-kind')).toHaveValue('roll');
+	await expect(page.getByTestId('chart-camber-to-ground')).toBeVisible();
+});

@@ -7,6 +7,7 @@ import { solveCorner } from '$lib/server/corners/solve';
 import { db } from '$lib/server/db';
 import { latestRevision, revisionOfCorner, revisionsOfCorner, setBaseline } from '$lib/server/db/queries/corners';
 import { recordAudit } from '$lib/server/db/queries/audit';
+import { studiesOfCorner } from '$lib/server/db/queries/studies';
 import { can, requireCorner } from '$lib/server/permissions';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -26,6 +27,7 @@ export const load: PageServerLoad = async (event) => {
 		revisions: await revisionsOfCorner(db, corner.id),
 		vehicle: vehicleFromCar(car, corner),
 		targets: targetsSchema.catch([]).parse(car.targets),
+		studies: await studiesOfCorner(db, corner.id),
 		design,
 		canEdit: can(role, 'edit')
 	};
