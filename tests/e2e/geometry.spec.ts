@@ -43,7 +43,7 @@ test('editing a point and saving makes a new revision; a bad value is named inli
 	await page.goto('/corners/00000000-0000-4000-8000-0000000000f2');
 	const z = page.getByLabel('Tie rod, inner joint, z in mm');
 	await z.fill('abc');
-	await expect(page.getByText('"abc" is not a number')).toBeVisible();
+	await expect(page.locator('[data-point="steer.inner"]').getByRole('alert')).toHaveText('"abc" is not a number');
 	await z.fill('196');
 	await page.keyboard.press('Enter');
 	await expect(page.getByLabel('Tie rod, outer joint, z in mm')).toBeFocused();

@@ -21,6 +21,9 @@ test('the workspace draws curves with data, moves the 3-D view and re-solves an 
 	const errors = consoleErrors(page);
 	await signIn(page, 'engineer@linkwright.test');
 	await page.goto(FRONT_LEFT);
+	// Other journeys may add revisions: open r3 (the 12 mm spacer, still outside the toe target) explicitly.
+	await page.locator('[data-revision="3"]').getByRole('link', { name: 'Start from this' }).click();
+	await expect(page.getByText(/Showing r3 “spacer 12 mm”/)).toBeVisible();
 	await expect(page.getByTestId('caution')).toBeVisible();
 	const toe = page.getByTestId('chart-toe');
 	await expect(toe.locator('path[data-series="draft"]')).toHaveCount(1);

@@ -52,29 +52,24 @@ export function requireTeam(event: RequestEvent, action: Action, teamId?: string
 	return team;
 }
 
-/** A car the caller may act on: 404 when it is not in one of their teams, 403 when their role lacks the action. */
-export async function requireCar(event: RequestEvent, carId: string, action: Action) {
-	const user = requireUser(event);
-	const found = await carForUser(db, user.id, carId);
-	if (!found) notFound('Car not found');
+/** An object found through the caller's memberships: 404 when it was not found, 403 when the role lacks the action. */
+function allowed<T extends { role: Role }>(found: T | null, what: string, action: Action): T {
+	if (!found) notFound(`${what} not found`);
 	if (!can(found.role, action)) forbid(action);
 	return found;
+}
+
+/** A car the caller may act on: 404 when it is not in one of their teams, 403 when their role lacks the action. */
+export async function requireCar(event: RequestEvent, carId: string, action: Action) {
+	return allowed(await carForUser(db, requireUser(event).id, carId), 'Car', action);
 }
 
 /** A corner (with its car) the caller may act on; 404 / 403 as for cars. */
 export async function requireCorner(event: RequestEvent, cornerId: string, action: Action) {
-	const user = requireUser(event);
-	const found = await cornerForUser(db, user.id, cornerId);
-	if (!found) notFound('Corner not found');
-	if (!can(found.role, action)) forbid(action);
-	return found;
+	return allowed(await cornerForUser(db, requireUser(event).id, cornerId), 'Corner', action);
 }
 
 /** A revision (with its corner and car) the caller may act on; 404 / 403 as for cars. */
 export async function requireRevision(event: RequestEvent, revisionId: string, action: Action) {
-	const user = requireUser(event);
-	const found = await revisionForUser(db, user.id, revisionId);
-	if (!found) notFound('Revision not found');
-	if (!can(found.role, action)) forbid(action);
-	return found;
+	return allowed(await revisionForUser(db, requireUser(event).id, revisionId), 'Revision', action);
 }
