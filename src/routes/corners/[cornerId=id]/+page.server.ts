@@ -18,7 +18,9 @@ export const load: PageServerLoad = async (event) => {
 	const shown = fromId && z.string().uuid().safeParse(fromId).success ? await revisionOfCorner(db, corner.id, fromId) : latest;
 	if (fromId && !shown) error(404, { message: 'Revision not found', code: 'not_found' });
 	const parsed = shown ? cornerGeometrySchema.safeParse(shown.geometry) : null;
-	const design = parsed?.success ? solveCorner(parsed.data, { sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0] ?? null : null;
+	// First paint: the workspace's default sweep (heave −80…80 mm by 1 mm, with point positions for the 3-D view).
+	const initial = parsed?.success ? solveCorner(parsed.data, { sweep: 'heave', from: -80, to: 80, step: 1, points: true }) : null;
+	const design = initial?.samples.find((s) => s.travel === 0) ?? null;
 	return {
 		car: { id: car.id, name: car.name },
 		corner,
@@ -29,6 +31,7 @@ export const load: PageServerLoad = async (event) => {
 		targets: targetsSchema.catch([]).parse(car.targets),
 		studies: await studiesOfCorner(db, corner.id),
 		design,
+		initial,
 		canEdit: can(role, 'edit')
 	};
 };
