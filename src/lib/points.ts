@@ -34,8 +34,3 @@ export const OPTIONAL_POINTS = ['spring.chassis', 'spring.body'] as const;
 export function pointsOfKind(kind: Kind): PointInfo[] {
 	return [...REQUIRED_POINTS[kind], ...OPTIONAL_POINTS].map((name) => ({ name, ...INFO[name] }));
 }
-
-/** True when the point must be given for the kind. */
-export function isRequired(kind: Kind, name: string) {
-	return REQUIRED_POINTS[kind].includes(name);
-}

@@ -53,7 +53,8 @@ test('compare: stock against rack moved reads the bump-steer change and the fail
 	await page.getByRole('link', { name: 'Compare revisions' }).click();
 	await page.getByTestId('pick-b').selectOption({ label: 'r2 rack moved' });
 	await expect(page.getByRole('heading', { name: 'In short: r1 stock → r2 rack moved' })).toBeVisible();
-	// The demo's rack moved 20 mm up and 15 mm back: about 2.3° of toe change over ±40 mm instead of about 0.01°.
+	// Regression value, no outside source: the invented demo's rack moved 20 mm up and 15 mm back gives about
+	// 2.3° of toe change over ±40 mm (solve command on fixtures/demo), stock about 0.01°.
 	await expect(page.locator('[data-measure="toe"]')).toHaveText(/^Toe change over ±40 mm goes from 0\.0\d° to 2\.[23]\d°\.$/);
 	await expect(page.getByTestId('target-A')).toContainText('A pass');
 	await expect(page.getByTestId('target-B')).toContainText('B fail');

@@ -83,8 +83,11 @@ export async function runImport(req: ImportRequest) {
 	});
 	if (!result.ok) refuse(result.error.code, result.error.message, result.error.field);
 	const geometry = geometryOf(req, result.preview, currentGeometry);
-	checkCornerFits(geometry, req.corner);
-	if (req.dryRun) return { preview: result.preview, geometry, saved: null };
+	if (req.dryRun) {
+		// saveRevision makes the same check when saving; a preview must fail the same way.
+		checkCornerFits(geometry, req.corner);
+		return { preview: result.preview, geometry, saved: null };
+	}
 	const { revision } = await saveRevision({
 		car: req.car, corner: req.corner, userId: req.userId, geometry,
 		label: req.label || `imported ${req.file.name}`, note: req.note, parentId: latest?.id ?? null, source: 'import',

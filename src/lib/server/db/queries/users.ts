@@ -1,5 +1,5 @@
 // Users, teams and memberships.
-import { and, asc, eq, gt, sql } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
 import { apiTokens, memberships, teams, users, type Role } from '../schema';
 
@@ -67,15 +67,6 @@ export async function userByApiToken(db: Database, tokenHash: string) {
 export async function createApiToken(db: Database, userId: string, name: string, tokenHash: string) {
 	const [row] = await db.insert(apiTokens).values({ userId, name, tokenHash }).returning({ id: apiTokens.id });
 	return row;
-}
-
-/** Number of members of a team with a role newer than a moment (used by tests and counts). */
-export async function countMembers(db: Database, teamId: string, since = new Date(0)) {
-	const [row] = await db
-		.select({ n: sql<number>`count(*)::int` })
-		.from(memberships)
-		.where(and(eq(memberships.teamId, teamId), gt(memberships.createdAt, since)));
-	return row.n;
 }
 
 /** A user's API tokens (never the token itself), newest first. */
