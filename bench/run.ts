@@ -14,7 +14,9 @@ const BENCHES: [string, Bench][] = [
 	['workspace', workspace]
 ];
 
-for (const [name, bench] of BENCHES) {
+// `npm run bench -- workspace` runs the named parts only.
+const wanted = process.argv.slice(2);
+for (const [name, bench] of BENCHES.filter(([n]) => wanted.length === 0 || wanted.includes(n))) {
 	console.log(`\n== ${name}`);
 	await bench.run();
 }

@@ -32,6 +32,7 @@ async function canvasStats(page: Page) {
 }
 
 test('the 3-D linkage view renders, follows the travel slider and the preset views', async ({ page }) => {
+	test.setTimeout(90_000); // a long journey; software WebGL on a busy 2-core machine
 	const problems: string[] = [];
 	page.on('console', (m) => {
 		if (m.type() === 'error') problems.push(m.text());

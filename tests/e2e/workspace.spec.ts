@@ -40,8 +40,12 @@ test('the workspace draws curves with data, moves the 3-D view and re-solves an 
 	await expect(page.getByTestId('linkage-position')).toContainText(/ \+80(\.0)? mm/);
 
 	// Lower the outer tie-rod joint back by the spacer: the toe curve must change before saving.
+	const canvas = page.getByTestId('linkage-canvas');
+	const draws = await canvas.getAttribute('data-draws');
 	await page.getByLabel('Tie rod, outer joint, z in mm').fill('175');
 	await expect.poll(async () => (await pathYs(page, 'toe', 'draft')).join(',')).not.toBe(before.join(','));
+	// the 3-D view follows the charts with the edited corner's positions
+	await expect.poll(() => canvas.getAttribute('data-draws')).not.toBe(draws);
 	expect(errors).toEqual([]);
 	await page.screenshot({ path: 'test-results/screens/workspace.png', fullPage: true });
 });
@@ -63,6 +67,21 @@ test('compare: stock against rack moved reads the bump-steer change and the fail
 	await expect(moved.locator('tbody tr').first()).toContainText('steer.inner');
 	await expect(moved.locator('tbody tr').first()).toContainText('25.0');
 	await expect(page.getByTestId('chart-toe').locator('path[data-series="b"]')).toHaveCount(1);
+
+	// The figures at positions of the engineer's choosing, off the 1 mm grid too; a bad list is named.
+	const heads = page.getByTestId('figures').locator('thead th');
+	await expect(heads).toHaveText(['Measure', '-50', '-25', '0', '+25', '+50']);
+	await page.getByLabel('Travel positions for the figures (mm, + bump)').fill('−40, 37.5, 0, 40');
+	await page.getByRole('button', { name: 'Show' }).click();
+	await expect(heads).toHaveText(['Measure', '-40', '0', '+37.5', '+40']);
+	await expect(page.getByRole('heading', { name: 'In short: r1 stock → r2 rack moved' })).toBeVisible();
+	const toeRow = page.getByTestId('figures').locator('tbody tr', { hasText: 'Toe' }).first();
+	await expect(toeRow.locator('td')).toHaveCount(4);
+	await expect(toeRow.locator('td').nth(1)).toHaveText(/^-?\d+\.\d{3}\s*-?\d+\.\d{3}\s*-?\d+\.\d{3}$/);
+	await page.getByLabel('Travel positions for the figures (mm, + bump)').fill('0, 300');
+	await page.getByRole('button', { name: 'Show' }).click();
+	await expect(page.getByTestId('positions-problem')).toContainText('at: 300 mm is beyond ±200 mm of travel');
+	await expect(heads).toHaveText(['Measure', '-50', '-25', '0', '+25', '+50']);
 	expect(errors).toEqual([]);
 	await page.screenshot({ path: 'test-results/screens/compare.png', fullPage: true });
 });
@@ -89,4 +108,29 @@ test('a study keeps the sweep settings and overlays and reopens them', async ({ 
 	await page.getByTestId('open-study').selectOption({ label: 'roll check' });
 	await expect(page.getByTestId('sweep-kind')).toHaveValue('roll');
 	await expect(page.getByTestId('chart-camber-to-ground')).toBeVisible();
+});
+
+test('on a tablet the workspace stays usable: side by side in landscape, charts straight after the table in portrait', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	const overflow = () => page.evaluate('document.documentElement.scrollWidth - document.documentElement.clientWidth');
+	const box = async (testid: string) => (await page.getByTestId(testid).boundingBox())!;
+	const tableBox = async () => (await page.getByRole('table', { name: 'Pickup points (mm, vehicle axes)' }).boundingBox())!;
+
+	await page.setViewportSize({ width: 1024, height: 768 });
+	await page.goto(FRONT_LEFT);
+	await expect(page.getByTestId('linkage-canvas')).toBeVisible();
+	expect(await overflow()).toBe(0);
+	const [table, canvas] = [await tableBox(), await box('linkage-canvas')];
+	expect(table.x + table.width).toBeLessThan(canvas.x); // beside each other
+	expect(canvas.width).toBeGreaterThan(400);
+	await page.screenshot({ path: 'test-results/screens/workspace-tablet-landscape.png' });
+
+	await page.setViewportSize({ width: 768, height: 1024 });
+	await page.goto(FRONT_LEFT);
+	await expect(page.getByTestId('linkage-canvas')).toBeVisible();
+	expect(await overflow()).toBe(0);
+	const [t2, c2, toe, history] = [await tableBox(), await box('linkage-canvas'), await box('chart-toe'), (await page.getByRole('heading', { name: 'Revisions' }).boundingBox())!];
+	expect(t2.y + t2.height).toBeLessThan(c2.y); // the 3-D view and charts follow the table
+	expect(toe.y).toBeLessThan(history.y); // before the revision history
+	await page.screenshot({ path: 'test-results/screens/workspace-tablet-portrait.png', fullPage: true });
 });

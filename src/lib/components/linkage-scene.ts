@@ -119,6 +119,7 @@ const SPRING_TURNS = 7;
 const SPRING_SEGMENTS = 160;
 const CIRCLE_SEGMENTS = 72;
 const LABEL_PX = 13; // label text height in CSS pixels
+const STATICS_MM = 50; // the ground grid follows the wheel centre when it moves further than this
 const REFIT_MM = 200; // a wheel centre moved further than this is another corner: frame it afresh
 const GIZMO_PX = 170; // CSS pixels: side of the axes-triad inset
 const GIZMO_HALF = 2.1; // triad inset half-size in arrow lengths (room for the labels)
@@ -568,7 +569,10 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		}
 	}
 
+	let draws = 0;
+
 	function draw() {
+		canvas.dataset.draws = String(++draws); // tests and the bench see when a new picture has been drawn
 		// labels keep a constant on-screen size: world units per CSS pixel of the orthographic view
 		const perPx = (camera.top - camera.bottom) / camera.zoom / height;
 		for (const s of sprites) {
@@ -630,51 +634,97 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		scene.add(statics);
 	}
 
-	/** Rebuild everything drawn from the data with the current palette; keeps the camera. */
-	function rebuild() {
-		current?.dispose(keep, sprites);
-		ghost?.dispose(keep, sprites);
-		if (current) scene.remove(current.group);
-		if (ghost) scene.remove(ghost.group);
-		current = ghost = null;
-		renderer.setClearColor(palette.sunken, 1);
-		buildGizmo();
+	/** What a rig's objects depend on: the kind, the tyre and the point names (not where the points are). */
+	function shapeOf(frames: Frame[] | null | undefined, kind: CornerKind, radius: number): string {
+		if (!frames || frames.length === 0) return '';
+		const names = new Set<string>();
+		for (const f of frames) for (const n in f.points) names.add(n);
+		return `${kind}|${radius}|${[...names].sort().join(',')}`;
+	}
+
+	let currentShape = '';
+	let ghostShape = '';
+	let staticsCentre: Vec3 | null = null;
+
+	/** Point names over all frames. */
+	const namesOf = (fs: Frame[]) => [...new Set(fs.flatMap((f) => Object.keys(f.points)))];
+
+	/**
+	 * Bring the drawn objects in line with the data. A rig is rebuilt only when its shape changed (or `all`,
+	 * after a theme change); a point edit only re-poses, so no material, shader or texture is made again.
+	 */
+	function rebuild(all = false) {
+		if (all) {
+			renderer.setClearColor(palette.sunken, 1);
+			buildGizmo();
+		}
 		if (!data || data.frames.length === 0) {
+			dropRig('current');
+			dropRig('ghost');
 			scene.remove(statics);
+			staticsCentre = null;
 			requestRender();
 			return;
 		}
 		side = data.frames[0].wheel_centre[1] >= 0 ? 1 : -1;
-		buildStatics(data.frames[0]);
-		const names = (fs: Frame[]) => [...new Set(fs.flatMap((f) => Object.keys(f.points)))];
-		if (data.ghost && data.ghost.length > 0) {
-			ghost = new RevisionRig(
+		const wc = data.frames[0].wheel_centre;
+		if (all || !staticsCentre || Math.hypot(wc[0] - staticsCentre[0], wc[1] - staticsCentre[1]) > STATICS_MM) {
+			buildStatics(data.frames[0]);
+			staticsCentre = [...wc];
+		}
+		const nextGhost = data.ghost && data.ghost.length > 0 ? shapeOf(data.ghost, data.kind, data.loadedRadius) : '';
+		if (all || nextGhost !== ghostShape) {
+			dropRig('ghost');
+			if (nextGhost) {
+				ghost = new RevisionRig(
+					data.kind,
+					namesOf(data.ghost!),
+					data.loadedRadius,
+					{ link: palette.muted, joint: palette.muted, pivot: palette.muted, marker: palette.muted, opacity: 0.4, ghost: true },
+					shared,
+					sprites,
+					palette.accent
+				);
+				scene.add(ghost.group);
+			}
+			ghostShape = nextGhost;
+		}
+		const nextCurrent = shapeOf(data.frames, data.kind, data.loadedRadius);
+		if (all || nextCurrent !== currentShape) {
+			dropRig('current');
+			current = new RevisionRig(
 				data.kind,
-				names(data.ghost),
+				namesOf(data.frames),
 				data.loadedRadius,
-				{ link: palette.muted, joint: palette.muted, pivot: palette.muted, marker: palette.muted, opacity: 0.4, ghost: true },
+				{ link: palette.accent, joint: palette.ink, pivot: palette.ink, marker: palette.warn, opacity: 1, ghost: false },
 				shared,
 				sprites,
 				palette.accent
 			);
-			scene.add(ghost.group);
+			scene.add(current.group);
+			currentShape = nextCurrent;
 		}
-		current = new RevisionRig(
-			data.kind,
-			names(data.frames),
-			data.loadedRadius,
-			{ link: palette.accent, joint: palette.ink, pivot: palette.ink, marker: palette.warn, opacity: 1, ghost: false },
-			shared,
-			sprites,
-			palette.accent
-		);
-		scene.add(current.group);
 		applyPose();
 		if (!fitted) {
 			fit(data.frames);
 			fitted = true;
 		}
 		requestRender();
+	}
+
+	/** Remove and free one rig. */
+	function dropRig(which: 'current' | 'ghost') {
+		const rig = which === 'current' ? current : ghost;
+		if (!rig) return;
+		rig.dispose(keep, sprites);
+		scene.remove(rig.group);
+		if (which === 'current') {
+			current = null;
+			currentShape = '';
+		} else {
+			ghost = null;
+			ghostShape = '';
+		}
 	}
 
 	function applyPose() {
@@ -737,8 +787,9 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			const after = next.frames[0]?.wheel_centre;
 			const moved = !before || !after || Math.hypot(after[0] - before[0], after[1] - before[1], after[2] - before[2]) > REFIT_MM;
 			if (data?.kind !== next.kind || moved) fitted = false;
+			const first = data === null;
 			data = next;
-			rebuild();
+			rebuild(first);
 		},
 		setPose(index, highlight) {
 			pose = { index, highlight };
@@ -747,7 +798,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		setView,
 		refreshTheme() {
 			palette = readPalette();
-			rebuild();
+			rebuild(true);
 		},
 		resize(w, h) {
 			width = Math.max(1, w);

@@ -4,8 +4,12 @@ import { judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure }
 import type { Sample } from '$lib/server/kinematics';
 import { solveCorner } from './solve';
 
-export const COMPARE_SWEEP = { sweep: 'heave' as const, from: -50, to: 50, step: 1 };
-export const COMPARE_POSITIONS = [-50, -25, 0, 25, 50];
+import { DEFAULT_POSITIONS } from '$lib/schemas/compare';
+
+/** The charts' sweep: ±50 mm by 1 mm, widened to take in every chosen position. */
+export function compareSweep(positions: number[]) {
+	return { sweep: 'heave' as const, from: Math.min(-50, Math.floor(Math.min(...positions))), to: Math.max(50, Math.ceil(Math.max(...positions))), step: 1 };
+}
 /** travel range of the one-line summaries (mm) */
 export const SUMMARY_RANGE = 40;
 
@@ -24,11 +28,15 @@ export function movedPoints(a: CornerGeometry, b: CornerGeometry) {
 		.sort((m, n) => (n.d ?? Infinity) - (m.d ?? Infinity));
 }
 
-/** The value of a measure at a travel position, or null. */
-function at(samples: Sample[], travel: number, key: TargetMeasure): number | null {
-	const s = samples.find((x) => x.travel === travel);
+/** The value of a measure in a sample, or null. */
+function valueOf(s: Sample | undefined, key: TargetMeasure): number | null {
 	const v = s?.[key];
 	return typeof v === 'number' ? v : null;
+}
+
+/** One solved sample at exactly each travel position (a one-position sweep each), undefined where it cannot be assembled. */
+function samplesAt(g: CornerGeometry, positions: number[]): (Sample | undefined)[] {
+	return positions.map((travel) => solveCorner(g, { sweep: 'heave', from: travel, to: travel, step: 1 }).samples[0]);
 }
 
 /** The spread of (value − value at design) over ±range, or null when the sweep did not reach it. */
@@ -50,20 +58,24 @@ function summary(key: TargetMeasure, a: Sample[], b: Sample[]) {
 }
 
 /** Everything the compare page shows, solved on the server. */
-export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: Target[]) {
-	const sa = solveCorner(a, COMPARE_SWEEP);
-	const sb = solveCorner(b, COMPARE_SWEEP);
+export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: Target[], positions: number[] = DEFAULT_POSITIONS) {
+	const sweep = compareSweep(positions);
+	const sa = solveCorner(a, sweep);
+	const sb = solveCorner(b, sweep);
+	const pa = samplesAt(a, positions);
+	const pb = samplesAt(b, positions);
 	const figures = TARGET_MEASURES.map((key) => ({
 		key,
 		...measureWords(key),
-		rows: COMPARE_POSITIONS.map((travel) => {
-			const va = at(sa.samples, travel, key);
-			const vb = at(sb.samples, travel, key);
+		rows: positions.map((travel, i) => {
+			const va = valueOf(pa[i], key);
+			const vb = valueOf(pb[i], key);
 			return { travel, a: va, b: vb, delta: va === null || vb === null ? null : vb - va };
 		}),
 		summary: summary(key, sa.samples, sb.samples)
 	}));
 	return {
+		positions,
 		moved: movedPoints(a, b),
 		figures,
 		a: sa,
