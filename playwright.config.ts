@@ -9,7 +9,8 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 2,
 	retries: 0,
-	timeout: 30_000,
+	expect: { timeout: 10_000 },
+	timeout: 60_000, // journeys sign in (argon2) and draw WebGL in software on a 2-core machine
 	reporter: [['list'], ['json', { outputFile: 'test-results/playwright.json' }]],
 	use: {
 		baseURL,

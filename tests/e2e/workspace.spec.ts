@@ -114,7 +114,7 @@ test('on a tablet the workspace stays usable: side by side in landscape, charts 
 	await signIn(page, 'engineer@linkwright.test');
 	const overflow = () => page.evaluate('document.documentElement.scrollWidth - document.documentElement.clientWidth');
 	const box = async (testid: string) => (await page.getByTestId(testid).boundingBox())!;
-	const tableBox = async () => (await page.getByRole('table', { name: 'Pickup points (mm, vehicle axes)' }).boundingBox())!;
+	const tableBox = async () => (await page.locator('table[aria-label="Pickup points (mm, vehicle axes)"]').boundingBox())!;
 
 	await page.setViewportSize({ width: 1024, height: 768 });
 	await page.goto(FRONT_LEFT);
