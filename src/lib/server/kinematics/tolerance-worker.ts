@@ -9,7 +9,7 @@ import { runSamples, type ToleranceSpec } from './tolerance';
 function onRequest(msg: { spec: ToleranceSpec; start: number; end: number }): void {
 	const port = parentPort!;
 	const block = runSamples(msg.spec, msg.start, msg.end, (done) => port.postMessage({ type: 'progress', done }));
-	port.postMessage({ type: 'done', block }, [block.values.buffer, block.ok.buffer]);
+	port.postMessage({ type: 'done', block }, [block.values.buffer as ArrayBuffer, block.ok.buffer as ArrayBuffer]);
 }
 
 parentPort?.on('message', onRequest);
