@@ -33,7 +33,8 @@ export const POST = endpoint<RequestEvent>(async (event) => {
 			let last = 0;
 			try {
 				const result = await runToleranceStudy(spec, input, signal, (done) => {
-					if (done - last >= spec.samples / 50 || done === spec.samples) send({ type: 'progress', done, total: spec.samples });
+					if (done - last < spec.samples / 50 && done !== spec.samples) return;
+					send({ type: 'progress', done, total: spec.samples });
 					last = done;
 				});
 				let studyId: string | null = null;
