@@ -171,11 +171,14 @@ function halton(i: number, b: number): number {
 	return r;
 }
 
-/** Starting points: no move first, then a deterministic Halton spread over 80 % of each coordinate's bounds. */
+/**
+ * Starting points: no move first (clamped into the bounds), then a deterministic Halton spread over the middle
+ * 80 % of each coordinate's bounds.
+ */
 export function startingPoints(coords: readonly FreeCoordinate[], count: number): number[][] {
-	const out: number[][] = [coords.map(() => 0)];
+	const out: number[][] = [coords.map((c) => Math.min(c.max, Math.max(c.min, 0)))];
 	for (let s = 1; s < count; s++) {
-		out.push(coords.map((c, i) => 0.8 * (c.min + halton(s, PRIMES[i % PRIMES.length]) * (c.max - c.min))));
+		out.push(coords.map((c, i) => (c.min + c.max) / 2 + 0.8 * (halton(s, PRIMES[i % PRIMES.length]) - 0.5) * (c.max - c.min)));
 	}
 	return out;
 }
