@@ -30,22 +30,56 @@ export class RunCancelled extends Error {
 	}
 }
 
+/**
+ * Idle workers by code, kept between studies so their compiled (JIT-warm) solver is reused: a started worker
+ * is cold and runs its first thousands of sweeps several times slower. They hold no data between jobs, so this
+ * is no state of the server's (any instance can run any study); idle ones are unref'd and never keep a process up.
+ */
+const idle = new Map<string, Worker[]>();
+/** At most this many idle workers are kept per code. */
+const KEEP_IDLE = 4;
+
+/** Hand a finished worker back to the idle list (or end it when the list is full). */
+function release(code: string, w: Worker): void {
+	w.removeAllListeners('message');
+	w.removeAllListeners('error');
+	const list = idle.get(code) ?? [];
+	if (list.length >= KEEP_IDLE) return void w.terminate();
+	w.unref();
+	list.push(w);
+	idle.set(code, list);
+}
+
+/** End the idle workers (tests and the bench use it to measure cold starts). */
+export async function endIdleWorkers(): Promise<void> {
+	const all = [...idle.values()].flat();
+	idle.clear();
+	await Promise.all(all.map((w) => w.terminate()));
+}
+
 /** Solve all samples of `spec`, in parallel where workers can start. */
 export async function runTolerance(spec: ToleranceSpec, options: RunOptions): Promise<RunOutcome> {
 	if (options.signal?.aborted) throw new RunCancelled();
 	if (options.threads > 0 && options.workerCode) {
 		const started = startWorkers(options.workerCode, options.threads);
-		if (Array.isArray(started)) return { blocks: await onWorkers(spec, started, options), threads: started.length, fallback: null };
+		if (Array.isArray(started)) return { blocks: await onWorkers(spec, started, options.workerCode, options), threads: started.length, fallback: null };
 		return { blocks: await onThisThread(spec, options), threads: 0, fallback: started };
 	}
 	return { blocks: await onThisThread(spec, options), threads: 0, fallback: options.threads > 0 ? 'no worker code was given' : null };
 }
 
-/** Start `n` workers, or say why they could not start. */
+/** Take `n` workers (idle ones first, else new), or say why they could not start. */
 function startWorkers(code: string, n: number): Worker[] | string {
 	const workers: Worker[] = [];
+	const list = idle.get(code) ?? [];
 	try {
-		for (let i = 0; i < n; i++) workers.push(new Worker(code, { eval: true }));
+		while (workers.length < n && list.length) {
+			const w = list.pop()!;
+			if (w.threadId === -1) continue; // it has exited meanwhile
+			w.ref();
+			workers.push(w);
+		}
+		while (workers.length < n) workers.push(new Worker(code, { eval: true }));
 		return workers;
 	} catch (e) {
 		for (const w of workers) void w.terminate();
@@ -54,13 +88,14 @@ function startWorkers(code: string, n: number): Worker[] | string {
 }
 
 /** Hand one block to each worker; resolve with the blocks in order, terminate all on abort or error. */
-function onWorkers(spec: ToleranceSpec, workers: Worker[], options: RunOptions): Promise<SampleBlock[]> {
+function onWorkers(spec: ToleranceSpec, workers: Worker[], code: string, options: RunOptions): Promise<SampleBlock[]> {
 	const ranges = splitRange(spec.samples, workers.length);
 	const done = ranges.map(() => 0);
 	const blocks: (SampleBlock | null)[] = ranges.map(() => null);
 	return new Promise((resolve, reject) => {
 		const stop = (e: Error) => {
-			for (const w of workers) void w.terminate();
+			// end the workers still busy (finished ones are back in the idle list, unharmed)
+			workers.forEach((w, i) => i < ranges.length && !blocks[i] && void w.terminate());
 			options.signal?.removeEventListener('abort', onAbort);
 			reject(e);
 		};
@@ -76,7 +111,7 @@ function onWorkers(spec: ToleranceSpec, workers: Worker[], options: RunOptions):
 				}
 				blocks[i] = m.block;
 				done[i] = end - start;
-				void w.terminate();
+				release(code, w);
 				if (blocks.every((b) => b)) {
 					options.signal?.removeEventListener('abort', onAbort);
 					options.onProgress?.(spec.samples);
@@ -86,7 +121,7 @@ function onWorkers(spec: ToleranceSpec, workers: Worker[], options: RunOptions):
 			w.on('error', (e) => stop(e));
 			w.postMessage({ spec, start, end });
 		});
-		for (const w of workers.slice(ranges.length)) void w.terminate();
+		for (const w of workers.slice(ranges.length)) release(code, w);
 	});
 }
 
