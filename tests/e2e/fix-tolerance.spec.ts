@@ -4,7 +4,7 @@ import { signIn } from './helpers';
 const FRONT_LEFT = '/corners/00000000-0000-4000-8000-0000000000f1';
 
 // The corner page (3-D view, first solve) is slow to open on a busy two-core machine.
-test.describe.configure({ timeout: 60_000 });
+test.describe.configure({ timeout: 90_000 });
 
 /** Collects console errors of a page. */
 function consoleErrors(page: Page) {
@@ -19,9 +19,9 @@ test('fix search: the engineer restores the rack-moved toe curve with the tie-ro
 	await signIn(page, 'engineer@linkwright.test');
 	await page.goto(FRONT_LEFT);
 	await page.locator('[data-revision="2"]').getByRole('link', { name: 'Start from this' }).click();
-	await expect(page.getByText(/Showing r2 “rack moved”/)).toBeVisible();
+	await expect(page.getByText(/Showing r2 “rack moved”/)).toBeVisible({ timeout: 20_000 });
 	await page.getByRole('link', { name: 'Fix search' }).click();
-	await expect(page.getByRole('heading', { name: 'Fix search' })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Fix search' })).toBeVisible({ timeout: 20_000 });
 	await expect(page.getByTestId('caution')).toBeVisible();
 	await expect(page.getByTestId('fix-revision')).toHaveValue(/.+/);
 	await expect(page.getByTestId('fix-revision').locator('option:checked')).toHaveText('r2 rack moved');
@@ -49,7 +49,7 @@ test('fix search: the engineer restores the rack-moved toe curve with the tie-ro
 	const saved = page.getByTestId('fix-saved');
 	await expect(saved).toContainText(/Saved as r\d+: Fix search moved steer\.(inner|outer)/);
 	await saved.getByRole('link').click();
-	await expect(page.getByText(/Showing r\d+ “tie-rod fix”/)).toBeVisible();
+	await expect(page.getByText(/Showing r\d+ “tie-rod fix”/)).toBeVisible({ timeout: 20_000 });
 	expect(errors).toEqual([]);
 });
 
@@ -58,9 +58,9 @@ test('tolerance study: a small study draws the bands, ranks the points and store
 	await signIn(page, 'engineer@linkwright.test');
 	await page.goto(FRONT_LEFT);
 	await page.locator('[data-revision="1"]').getByRole('link', { name: 'Start from this' }).click();
-	await expect(page.getByText(/Showing r1 “stock”/)).toBeVisible();
+	await expect(page.getByText(/Showing r1 “stock”/)).toBeVisible({ timeout: 20_000 });
 	await page.getByRole('link', { name: 'Tolerance study' }).click();
-	await expect(page.getByRole('heading', { name: 'Tolerance study' })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Tolerance study' })).toBeVisible({ timeout: 20_000 });
 	await expect(page.getByTestId('caution')).toBeVisible();
 	await page.getByLabel('Samples').fill('300');
 	await page.getByLabel('Study name').fill(`e2e tolerances ${Date.now()}`);
