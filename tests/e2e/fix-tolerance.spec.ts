@@ -22,6 +22,7 @@ test('fix search: the engineer restores the rack-moved toe curve with the tie-ro
 	await expect(page.getByText(/Showing r2 “rack moved”/)).toBeVisible({ timeout: 20_000 });
 	await page.getByRole('link', { name: 'Fix search' }).click();
 	await expect(page.getByRole('heading', { name: 'Fix search' })).toBeVisible({ timeout: 20_000 });
+	expect((await page.reload())?.status()).toBe(200); // the page renders on the server too
 	await expect(page.getByTestId('caution')).toBeVisible();
 	await expect(page.getByTestId('fix-revision')).toHaveValue(/.+/);
 	await expect(page.getByTestId('fix-revision').locator('option:checked')).toHaveText('r2 rack moved');
@@ -61,6 +62,7 @@ test('tolerance study: a small study draws the bands, ranks the points and store
 	await expect(page.getByText(/Showing r1 “stock”/)).toBeVisible({ timeout: 20_000 });
 	await page.getByRole('link', { name: 'Tolerance study' }).click();
 	await expect(page.getByRole('heading', { name: 'Tolerance study' })).toBeVisible({ timeout: 20_000 });
+	expect((await page.reload())?.status()).toBe(200); // the page renders on the server too
 	await expect(page.getByTestId('caution')).toBeVisible();
 	await page.getByLabel('Samples').fill('300');
 	await page.getByLabel('Study name').fill(`e2e tolerances ${Date.now()}`);
