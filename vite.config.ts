@@ -1,9 +1,10 @@
 import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
 import { defineConfig } from 'vitest/config';
+import { workerPlugin } from './scripts/worker-bundle.mjs';
 
 export default defineConfig({
-	plugins: [tailwindcss(), sveltekit()],
+	plugins: [tailwindcss(), sveltekit(), workerPlugin()],
 	server: { host: '127.0.0.1', port: 5173 },
 	test: {
 		expect: { requireAssertions: true },

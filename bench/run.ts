@@ -1,7 +1,9 @@
 // Frame: ISO 8855 vehicle axes (x forward, y left, z up); benches report figures only, never assert on time.
 // Runs every bench module in turn and prints its figures (`npm run bench`). Add new benches to BENCHES.
 
+import * as fixSearch from './fix-search';
 import * as kinematics from './kinematics';
+import * as tolerance from './tolerance';
 import * as workspace from './workspace';
 
 /** A bench module: a name and a function that prints its figures. */
@@ -11,6 +13,8 @@ interface Bench {
 
 const BENCHES: [string, Bench][] = [
 	['kinematics', kinematics],
+	['fix-search', fixSearch],
+	['tolerance', tolerance],
 	['workspace', workspace]
 ];
 

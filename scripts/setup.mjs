@@ -79,7 +79,7 @@ function newest(target) {
 /** Builds the app with Vite unless the build is newer than every source. */
 export function ensureBuild() {
 	const stamp = path.join(root, 'build', '.stamp');
-	const sources = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
+	const sources = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json', 'scripts/worker-bundle.mjs'];
 	const built = fs.existsSync(stamp) ? fs.statSync(stamp).mtimeMs : 0;
 	if (built && sources.every((s) => newest(path.join(root, s)) < built)) return;
 	say('building the app');

@@ -32,6 +32,22 @@ export interface Band {
 	pass?: boolean;
 }
 
+/** A spread of values per sweep position (e.g. a tolerance study): the min–max and 5–95 % envelopes. */
+export interface Spread {
+	/** legend text, e.g. "2000 samples" */
+	label?: string;
+	/** ascending in x */
+	points: SpreadPoint[];
+}
+
+export interface SpreadPoint {
+	x: number;
+	min: number;
+	max: number;
+	p5: number;
+	p95: number;
+}
+
 /** Two x values closer than this are the same sweep position (mm or degrees). */
 const SAME_X = 1e-9;
 
@@ -159,6 +175,16 @@ export function linePath(points: readonly ChartPoint[], sx: (x: number) => numbe
 		pen = true;
 	}
 	return d;
+}
+
+/** A closed SVG area between lo(p) and hi(p) over the spread's points (along hi, back along lo); '' when empty. */
+export function areaPath(points: readonly SpreadPoint[], sx: (x: number) => number, sy: (y: number) => number, lo: (p: SpreadPoint) => number, hi: (p: SpreadPoint) => number): string {
+	const ok = points.filter((p) => Number.isFinite(lo(p)) && Number.isFinite(hi(p)));
+	if (ok.length < 2) return '';
+	let d = '';
+	ok.forEach((p, i) => (d += `${i ? 'L' : 'M'}${round2(sx(p.x))},${round2(sy(hi(p)))}`));
+	for (let i = ok.length - 1; i >= 0; i--) d += `L${round2(sx(ok[i].x))},${round2(sy(lo(ok[i])))}`;
+	return d + 'Z';
 }
 
 /** Whether every value of `points` with x in the band's x0…x1 lies in y0…y1; false when none fall in range or any is null. */

@@ -1,0 +1,114 @@
+// Inputs of the analyses of a revision: fix search, sensitivity, tolerance study, adopted tolerances.
+// Client-safe: zod only. Lengths in mm, angles in degrees, travel = heave wheel travel (+ bump).
+import { z } from 'zod';
+
+/** Points a fix may move or a tolerance may apply to (the linkage, not the wheel or spring). */
+export const MOVABLE_POINTS = ['lower.front', 'lower.rear', 'lower.outer', 'upper.front', 'upper.rear', 'upper.outer', 'strut.top', 'strut.lower', 'steer.inner', 'steer.outer'] as const;
+export const FIT_MEASURES = ['toe', 'camber', 'caster', 'kpi', 'rc_height', 'half_track_change'] as const;
+export type FitMeasureKey = (typeof FIT_MEASURES)[number];
+export const AXIS_NAMES = ['x', 'y', 'z'] as const;
+
+/** Analyses refuse grids larger than this (positions). */
+export const MAX_ANALYSIS_POSITIONS = 401;
+
+const point = z.enum(MOVABLE_POINTS, { message: `must be one of ${MOVABLE_POINTS.join(', ')}` });
+const axis = z.enum(AXIS_NAMES, { message: "must be 'x', 'y' or 'z'" });
+
+export const travelSchema = z
+	.object({
+		from: z.number({ message: 'must be a number (mm)' }).min(-200, 'must be ≥ -200 mm').max(0, 'must be ≤ 0 (the range includes design)'),
+		to: z.number({ message: 'must be a number (mm)' }).min(0, 'must be ≥ 0 (the range includes design)').max(200, 'must be ≤ 200 mm'),
+		step: z.number({ message: 'must be a number (mm)' }).positive('must be > 0')
+	})
+	.refine((t) => t.from < t.to, { path: ['from'], message: 'must be < to' })
+	.refine((t) => Number.isInteger(Math.round(t.from / t.step * 1e9) / 1e9), { path: ['step'], message: 'must divide from, so travel 0 is on the grid' })
+	.refine((t) => (t.to - t.from) / t.step + 1 <= MAX_ANALYSIS_POSITIONS, { path: ['step'], message: `gives more than ${MAX_ANALYSIS_POSITIONS} positions` });
+
+export const freeCoordinateSchema = z
+	.object({
+		point,
+		axis,
+		/** the move stays within -bound…+bound mm */
+		bound: z.number({ message: 'must be a number (mm)' }).positive('must be > 0 mm').max(100, 'must be ≤ 100 mm')
+	});
+
+export const fixSearchInput = z
+	.object({
+		free: z.array(freeCoordinateSchema).min(1, 'pick at least one coordinate').max(12, 'at most 12 coordinates'),
+		target: z.discriminatedUnion('kind', [
+			z.object({ kind: z.literal('revision'), revisionId: z.string().uuid('must be a revision id') }),
+			z.object({ kind: z.literal('zero') }),
+			z.object({ kind: z.literal('band'), min: z.number({ message: 'must be a number' }), max: z.number({ message: 'must be a number' }) })
+				.refine((b) => b.min <= 0 && b.max >= 0, { path: ['min'], message: 'the band must contain 0 (no change at design)' })
+		], { message: "kind must be 'revision', 'zero' or 'band'" }),
+		measures: z
+			.array(z.object({ key: z.enum(FIT_MEASURES, { message: `must be one of ${FIT_MEASURES.join(', ')}` }), weight: z.number({ message: 'must be a number' }).positive('must be > 0').max(1000, 'must be ≤ 1000') }))
+			.min(1, 'pick at least one measure')
+			.max(6, 'at most 6 measures'),
+		travel: travelSchema.default({ from: -40, to: 40, step: 2 }),
+		starts: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(1, 'must be ≥ 1').max(16, 'must be ≤ 16').default(5),
+		/** store the result in this study of the corner (needs edit rights) */
+		study: z.string().trim().min(1, 'name is required').max(120, 'at most 120 characters').optional()
+	})
+	.superRefine((v, ctx) => {
+		const seen = new Set<string>();
+		v.free.forEach((f, i) => {
+			const k = `${f.point}.${f.axis}`;
+			if (seen.has(k)) ctx.addIssue({ code: 'custom', path: ['free', i, 'axis'], message: `${k} is listed twice` });
+			seen.add(k);
+		});
+		const keys = new Set<string>();
+		v.measures.forEach((m, i) => {
+			if (keys.has(m.key)) ctx.addIssue({ code: 'custom', path: ['measures', i, 'key'], message: `${m.key} is listed twice` });
+			keys.add(m.key);
+		});
+	});
+export type FixSearchRequest = z.infer<typeof fixSearchInput>;
+
+export const movesInput = z.object({
+	moves: z
+		.array(z.object({ point, axis, move: z.number({ message: 'must be a number (mm)' }).min(-100, 'must be ≥ -100 mm').max(100, 'must be ≤ 100 mm') }))
+		.min(1, 'at least one move')
+		.max(30, 'at most 30 moves'),
+	label: z.string().trim().max(120, 'at most 120 characters').default('fix search'),
+	note: z.string().max(4000, 'at most 4000 characters').default('')
+});
+
+export const sensitivityInput = z.object({
+	travel: travelSchema.default({ from: -40, to: 40, step: 2 })
+});
+
+export const pointToleranceSchema = z.object({
+	mm: z.number({ message: 'must be a number (mm)' }).positive('must be > 0 mm').max(20, 'must be ≤ 20 mm'),
+	mode: z.enum(['axis', 'sphere'], { message: "must be 'axis' or 'sphere'" }).default('axis')
+});
+
+export const toleranceStudyInput = z.object({
+	/** per point; points left out get `default` */
+	points: z.partialRecord(point, pointToleranceSchema).default({}),
+	default: pointToleranceSchema.default({ mm: 0.5, mode: 'axis' }),
+	samples: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(50, 'must be ≥ 50').max(20000, 'must be ≤ 20000').default(2000),
+	seed: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(0, 'must be ≥ 0').max(2 ** 32 - 1, 'must be < 2^32').default(1),
+	distribution: z.enum(['normal', 'uniform'], { message: "must be 'normal' or 'uniform'" }).default('normal'),
+	travel: travelSchema.default({ from: -40, to: 40, step: 2 }),
+	/** the measure the suggested tolerances keep inside its band (change from design over the travel) */
+	target: z
+		.object({ measure: z.enum(FIT_MEASURES, { message: `must be one of ${FIT_MEASURES.join(', ')}` }), min: z.number({ message: 'must be a number' }), max: z.number({ message: 'must be a number' }) })
+		.refine((t) => t.min < 0 && t.max > 0, { path: ['min'], message: 'the band must contain 0 (no change at design)' })
+		.default({ measure: 'toe', min: -0.1, max: 0.1 }),
+	threads: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(0, 'must be ≥ 0').max(8, 'must be ≤ 8').default(2),
+	study: z.string().trim().min(1, 'name is required').max(120, 'at most 120 characters').optional()
+});
+export type ToleranceStudyRequest = z.infer<typeof toleranceStudyInput>;
+
+/** The shop-link contract (issue 6 reads it): results.tolerances of a study row. */
+export const adoptedTolerancesInput = z.object({
+	revisionId: z.string().uuid('must be a revision id'),
+	points: z.partialRecord(point, z.object({ mm: pointToleranceSchema.shape.mm, mode: z.enum(['axis', 'sphere'], { message: "must be 'axis' or 'sphere'" }) }))
+		.refine((p) => Object.keys(p).length > 0, 'at least one point')
+});
+export interface AdoptedTolerances {
+	revisionId: string;
+	points: Record<string, { mm: number; mode: 'axis' | 'sphere' }>;
+	updatedAt: string;
+}

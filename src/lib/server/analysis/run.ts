@@ -1,0 +1,107 @@
+// The app's side of the analyses: request → engine input, engine result → JSON, engine failures → 400s.
+// The maths lives in $lib/server/kinematics; this file only translates.
+import { error } from '@sveltejs/kit';
+import { AXIS_NAMES, MOVABLE_POINTS, type FixSearchRequest, type ToleranceStudyRequest } from '$lib/schemas/analysis';
+import type { CornerGeometry } from '$lib/schemas/geometry';
+import { CornerEvaluator, toChange, type CurveMeasure } from '$lib/server/kinematics/evaluate';
+import { fixSearch, movesNote, type FixSearchResult } from '$lib/server/kinematics/fix-search';
+import { runTolerance, type RunOutcome } from '$lib/server/kinematics/parallel';
+import { sensitivity } from '$lib/server/kinematics/sensitivity';
+import { bands, firstOrder, nominalCurves, suggestTolerances, varianceShares, type ToleranceSpec } from '$lib/server/kinematics/tolerance';
+import { workerCode } from './worker-code';
+
+const axisIndex = (a: (typeof AXIS_NAMES)[number]) => AXIS_NAMES.indexOf(a) as 0 | 1 | 2;
+
+/** Stops with 400 unless the corner has `point` (named as `field`). */
+function needPoint(geometry: CornerGeometry, point: string, field: string): void {
+	if (!geometry.points[point]) error(400, { message: `${field}: this corner has no point ${point}`, code: 'invalid', field });
+}
+
+/** Stops with 400 when the corner cannot be solved over the whole travel as it is. */
+function evaluatorOrFail(geometry: CornerGeometry, travel: { from: number; to: number; step: number }, measures: CurveMeasure[]): CornerEvaluator {
+	try {
+		return new CornerEvaluator(geometry, travel, measures);
+	} catch (e) {
+		error(400, { message: `travel: ${(e as Error).message}`, code: 'invalid', field: 'travel' });
+	}
+}
+
+/** Runs a fix search on `geometry`; `targetGeometry` is the revision whose curves are the target (or null). */
+export function runFixSearch(geometry: CornerGeometry, input: FixSearchRequest, targetGeometry: CornerGeometry | null): FixSearchResult & { note: string } {
+	input.free.forEach((f, i) => needPoint(geometry, f.point, `free.${i}.point`));
+	const keys = input.measures.map((m) => m.key);
+	const n = evaluatorOrFail(geometry, input.travel, keys).count;
+	let targets: Float64Array | null = null;
+	if (input.target.kind === 'revision') {
+		const ev = evaluatorOrFail(targetGeometry!, input.travel, keys);
+		targets = new Float64Array(keys.length * n);
+		ev.evaluate([], [], targets);
+		toChange(targets, keys.length, n, ev.design);
+	}
+	const band = input.target.kind === 'band' ? ([input.target.min, input.target.max] as [number, number]) : undefined;
+	const result = fixSearch({
+		corner: geometry,
+		grid: input.travel,
+		free: input.free.map((f) => ({ point: f.point, axis: axisIndex(f.axis), min: -f.bound, max: f.bound })),
+		measures: input.measures.map((m, j) => ({ key: m.key, weight: m.weight, band, target: targets ? targets.subarray(j * n, (j + 1) * n) : undefined })),
+		starts: input.starts
+	});
+	return { ...result, note: movesNote(result.free) };
+}
+
+/** Sensitivity of the corner over the travel. */
+export function runSensitivity(geometry: CornerGeometry, travel: { from: number; to: number; step: number }) {
+	evaluatorOrFail(geometry, travel, ['toe', 'camber', 'rc_height', 'caster', 'kpi']);
+	return sensitivity(geometry, travel);
+}
+
+/** The engine spec of a tolerance study request on `geometry`. */
+export function toleranceSpec(geometry: CornerGeometry, input: ToleranceStudyRequest): ToleranceSpec {
+	for (const p of Object.keys(input.points)) needPoint(geometry, p, `points.${p}`);
+	const measures: CurveMeasure[] = ['toe', 'camber'];
+	if (!measures.includes(input.target.measure)) measures.push(input.target.measure);
+	evaluatorOrFail(geometry, input.travel, measures);
+	const tolerances = MOVABLE_POINTS.filter((p) => geometry.points[p]).map((point) => ({ point, ...(input.points[point] ?? input.default) }));
+	return { corner: geometry, grid: input.travel, tolerances, measures, samples: input.samples, seed: input.seed, distribution: input.distribution };
+}
+
+/** Runs the study's samples (worker threads where they start) and builds its result. */
+export async function runToleranceStudy(spec: ToleranceSpec, input: ToleranceStudyRequest, signal: AbortSignal, onProgress: (done: number) => void) {
+	const t0 = performance.now();
+	const run: RunOutcome = await runTolerance(spec, { threads: input.threads, workerCode, signal, onProgress });
+	const fo = firstOrder(spec);
+	const nominal = nominalCurves(spec);
+	const measureBands = bands(spec, run.blocks, nominal, fo.total);
+	const failed = run.blocks.reduce((s, b) => s + b.ok.length - b.ok.reduce((a, v) => a + v, 0), 0);
+	return {
+		positions: fo.positions,
+		samples: spec.samples,
+		failed,
+		seed: spec.seed,
+		distribution: spec.distribution,
+		tolerances: spec.tolerances,
+		threads: run.threads,
+		fallback: run.fallback,
+		ms: Math.round(performance.now() - t0),
+		bands: measureBands,
+		shares: Object.fromEntries(spec.measures.map((m, j) => [m, varianceShares(spec, fo, j)])),
+		suggestion: suggestTolerances(spec, fo, input.target.measure, [input.target.min, input.target.max], [input.travel.from, input.travel.to], nominal)
+	};
+}
+export type ToleranceStudyResult = Awaited<ReturnType<typeof runToleranceStudy>>;
+
+/** The geometry with `moves` (mm) added to the named coordinates. */
+export function applyMoves(geometry: CornerGeometry, moves: { point: string; axis: (typeof AXIS_NAMES)[number]; move: number }[]): CornerGeometry {
+	const points = structuredClone(geometry.points);
+	moves.forEach((m, i) => {
+		needPoint(geometry, m.point, `moves.${i}.point`);
+		points[m.point][axisIndex(m.axis)] = Math.round((points[m.point][axisIndex(m.axis)] + m.move) * 1000) / 1000;
+	});
+	return { ...geometry, points };
+}
+
+/** The generated note of a saved fix. */
+export function fixNote(moves: { point: string; axis: (typeof AXIS_NAMES)[number]; move: number }[], extra: string): string {
+	const text = movesNote(moves.map((m) => ({ point: m.point, axis: axisIndex(m.axis), move: m.move })));
+	return `Fix search moved ${text}.${extra.trim() ? `\n\n${extra.trim()}` : ''}`;
+}

@@ -1,0 +1,62 @@
+import { cornerGeometrySchema } from '$lib/schemas/geometry';
+import { toleranceStudyInput } from '$lib/schemas/analysis';
+import { runToleranceStudy, toleranceSpec } from '$lib/server/analysis/run';
+import { endpoint, parseBody, parseWith } from '$lib/server/api';
+import { db } from '$lib/server/db';
+import { saveStudyResults } from '$lib/server/db/queries/studies';
+import { RunCancelled } from '$lib/server/kinematics/parallel';
+import { can, requireRevision } from '$lib/server/permissions';
+import type { RequestEvent } from './$types';
+
+/**
+ * Tolerance study, streamed as NDJSON: {"type":"progress","done","total"} lines, then one {"type":"result",
+ * "result", "studyId"} (or {"type":"error","error"}). Validation and permissions answer before the stream starts
+ * (JSON errors). A client that goes away (an aborted fetch) cancels the stream, which terminates the worker
+ * threads; nothing is stored then.
+ */
+export const POST = endpoint<RequestEvent>(async (event) => {
+	const { revision, corner, role } = await requireRevision(event, event.params.revisionId, 'view');
+	const input = await parseBody(event, toleranceStudyInput);
+	if (input.study && !can(role, 'edit')) await requireRevision(event, revision.id, 'edit');
+	const spec = toleranceSpec(parseWith(cornerGeometrySchema, revision.geometry), input);
+	const userId = event.locals.user!.id;
+	// Cancelled when the client goes away: the response stream is cancelled (and the request's signal, where it fires).
+	const cancel = new AbortController();
+	event.request.signal.addEventListener('abort', () => cancel.abort(), { once: true });
+	const signal = cancel.signal;
+	const encoder = new TextEncoder();
+	const stream = new ReadableStream<Uint8Array>({
+		async start(controller) {
+			const send = (o: unknown) => {
+				if (!signal.aborted) controller.enqueue(encoder.encode(JSON.stringify(o) + '\n'));
+			};
+			let last = 0;
+			try {
+				const result = await runToleranceStudy(spec, input, signal, (done) => {
+					if (done - last < spec.samples / 50 && done !== spec.samples) return;
+					send({ type: 'progress', done, total: spec.samples });
+					last = done;
+				});
+				let studyId: string | null = null;
+				if (input.study && !signal.aborted) {
+					const { study, ...settings } = input;
+					const row = await saveStudyResults(db, corner.id, userId, study, { sweep: 'heave', ...settings.travel, rack: 0, overlays: [], tolerance: { revisionId: revision.id, ...settings } }, { tolerance: { revisionId: revision.id, at: new Date().toISOString(), ...result } });
+					studyId = row.id;
+				}
+				send({ type: 'result', result, studyId });
+			} catch (e) {
+				if (!(e instanceof RunCancelled)) send({ type: 'error', error: { code: 'error', message: (e as Error).message } });
+			} finally {
+				try {
+					controller.close();
+				} catch {
+					// the client went away
+				}
+			}
+		},
+		cancel() {
+			cancel.abort();
+		}
+	});
+	return new Response(stream, { headers: { 'content-type': 'application/x-ndjson', 'cache-control': 'no-store' } });
+});
