@@ -6,7 +6,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { databaseUrl, root, testDatabase } from './db.mjs';
 import { ensureBuild, ensureChromium, ensurePackages, prepareDatabase, say, waitForHttp } from './setup.mjs';
-import { startTestServer } from './test-server.mjs';
+import { startTestMailServer, startTestServer, testSmtpPort } from './test-server.mjs';
 
 ensurePackages();
 ensureChromium();
@@ -15,13 +15,21 @@ ensureBuild();
 
 const port = Number(process.env.LW_TEST_PORT ?? 3100);
 const baseUrl = `http://127.0.0.1:${port}`;
+const mail = await startTestMailServer();
+say(`fake SMTP server on 127.0.0.1:${mail.port}`);
 const server = startTestServer(port);
 process.on('exit', () => server.kill('SIGKILL'));
 await waitForHttp(`${baseUrl}/signin`);
 
 const results = path.join(root, 'test-results');
 fs.mkdirSync(results, { recursive: true });
-const env = { ...process.env, LW_TEST_BASE_URL: baseUrl, TEST_DATABASE_URL: databaseUrl(testDatabase) };
+const env = {
+	...process.env,
+	LW_TEST_BASE_URL: baseUrl,
+	TEST_DATABASE_URL: databaseUrl(testDatabase),
+	LW_SMTP_PORT: String(testSmtpPort),
+	LW_MAILBOX_DIR: mail.dir
+};
 
 /** Runs one test runner with inherited output; returns its exit status. */
 function runner(command, args) {
