@@ -112,7 +112,7 @@ describe('opening a link signed out', () => {
 			for (const v of [x, y, z]) expect(html).toContain(`>${(Math.round(v * 10) / 10).toFixed(1)}<`);
 		}
 		// steer.inner moved x −15, z +20 from the baseline (set up above), the rest is unchanged.
-		expect(html).toMatch(/data-point="steer\.inner"[\s\S]*?−15\.0[\s\S]*?0\.0[\s\S]*?\+20\.0/);
+		expect(html).toMatch(/data-point="steer\.inner"[\s\S]*?>-15\.0<[\s\S]*?>0\.0<[\s\S]*?>\+20\.0</);
 		expect(html).toContain('1 point moved from the baseline r1');
 		expect(html).toContain('25.0 mm'); // √(15² + 20²) = 25
 		expect(html).toContain('ISO 8855');
