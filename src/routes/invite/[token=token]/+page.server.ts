@@ -29,7 +29,8 @@ function selectTeam(event: RequestEvent, teamId: string) {
 }
 
 export const load: PageServerLoad = async (event) => {
-	event.setHeaders({ 'referrer-policy': 'no-referrer', 'cache-control': 'private, no-store' });
+	// same-origin, not no-referrer: with no-referrer the browser sends "Origin: null" on the form post, which the CSRF check refuses.
+	event.setHeaders({ 'referrer-policy': 'same-origin', 'cache-control': 'private, no-store' });
 	const { invitation, teamName, invitedByName } = await openInvitation(event);
 	const account = await findUserByEmail(db, invitation.email);
 	const signedInAs = event.locals.user?.email ?? null;

@@ -7,7 +7,8 @@ import type { Actions, PageServerLoad } from './$types';
 const GONE = 'This reset link has expired or was already used. Ask for a new one.';
 
 export const load: PageServerLoad = async (event) => {
-	event.setHeaders({ 'referrer-policy': 'no-referrer', 'cache-control': 'private, no-store' });
+	// same-origin, not no-referrer: with no-referrer the browser sends "Origin: null" on the form post, which the CSRF check refuses.
+	event.setHeaders({ 'referrer-policy': 'same-origin', 'cache-control': 'private, no-store' });
 	const reset = await findReset(event.params.token);
 	if (!reset) error(410, { message: GONE, code: 'expired' });
 	return { email: reset.email };
