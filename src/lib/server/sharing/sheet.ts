@@ -13,6 +13,9 @@ import { recordAudit } from '$lib/server/db/queries/audit';
 import { markShareOpened, revisionById, shareByTokenHash } from '$lib/server/db/queries/shares';
 import { tolerancesForRevision, type AdoptedTolerances } from '$lib/server/db/queries/tolerances';
 import { allow } from '$lib/server/rate-limit';
+import type { SheetRow } from './sheet-csv';
+
+export { sheetCsv, type SheetRow } from './sheet-csv';
 
 /** An "opened" audit event at most once per link in this period, so refreshing the page does not flood the log. */
 export const OPENED_AUDIT_GAP_MS = 30 * 60 * 1000;
@@ -49,16 +52,6 @@ export async function openShare(token: string, clientAddress: string, { count = 
 	return found;
 }
 
-export interface SheetRow {
-	name: string;
-	label: string;
-	/** mm, vehicle axes */
-	xyz: [number, number, number];
-	/** mm from the baseline, null when the point did not move or there is no other baseline */
-	delta: { dx: number; dy: number; dz: number; d: number } | null;
-	/** adopted ± tolerance, null when none was set for this point */
-	tolerance: { mm: number; mode: 'axis' | 'sphere' } | null;
-}
 
 /** The table rows in the kind's point order, then any other points of the file. */
 function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: AdoptedTolerances | null): SheetRow[] {
@@ -105,27 +98,4 @@ export function framesOf(geometry: CornerGeometry) {
 			? [{ position: s.travel ?? 0, points: s.points, wheel_centre: s.wheel_centre, contact_patch: s.contact_patch, fvic: s.fvic, rc_height: s.rc_height }]
 			: []
 	);
-}
-
-/** A CSV field, quoted when it holds a delimiter, quote or line break. */
-function field(value: string) {
-	return /[",\n\r]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
-}
-
-/** mm at 0.1, as on the sheet, never "-0.0". */
-function tenth(v: number) {
-	const s = v.toFixed(1);
-	return Number(s) === 0 ? '0.0' : s;
-}
-
-/** The sheet's table as CSV: point, x, y, z, the move from the baseline and the tolerance (mm, ISO 8855 axes). */
-export function sheetCsv(rows: SheetRow[], withTolerance: boolean) {
-	const head = ['point', 'description', 'x_mm', 'y_mm', 'z_mm', 'dx_mm', 'dy_mm', 'dz_mm', ...(withTolerance ? ['tolerance_mm', 'tolerance_mode'] : [])];
-	const lines = [head.join(',')];
-	for (const r of rows) {
-		const d = r.delta ? [r.delta.dx, r.delta.dy, r.delta.dz].map(tenth) : ['', '', ''];
-		const t = withTolerance ? (r.tolerance ? [String(Math.round(r.tolerance.mm * 100) / 100), r.tolerance.mode] : ['', '']) : [];
-		lines.push([field(r.name), field(r.label), ...r.xyz.map(tenth), ...d, ...t].join(','));
-	}
-	return lines.join('\r\n') + '\r\n';
 }
