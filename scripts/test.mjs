@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // `npm test`: the same set-up as `npm start` against a fresh test database, then every test:
 // Vitest (unit, then integration against the real database and the built app), then Playwright in Chromium.
-import { spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { databaseUrl, root, testDatabase } from './db.mjs';
@@ -31,15 +31,22 @@ const env = {
 	LW_MAILBOX_DIR: mail.dir
 };
 
-/** Runs one test runner with inherited output; returns its exit status. */
+/**
+ * Runs one test runner with inherited output; resolves to its exit status. Asynchronous on purpose: the fake SMTP
+ * server lives in this process and must keep answering while the tests send mail.
+ */
 function runner(command, args) {
-	return spawnSync(command, args, { cwd: root, env, stdio: 'inherit' }).status ?? 1;
+	return new Promise((resolve) => {
+		const child = spawn(command, args, { cwd: root, env, stdio: 'inherit' });
+		child.on('exit', (code) => resolve(code ?? 1));
+		child.on('error', () => resolve(1));
+	});
 }
 
 say('vitest: unit and integration');
-const vitest = runner('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${results}/vitest.json`]);
+const vitest = await runner('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${results}/vitest.json`]);
 say('playwright: browser journeys in Chromium');
-const playwright = runner('npx', ['playwright', 'test']);
+const playwright = await runner('npx', ['playwright', 'test']);
 
 /** Counts passed and failed tests from the runners' JSON reports. */
 function counts() {

@@ -98,6 +98,9 @@ describe('invitations', () => {
 		const bad = await post(owner.client, '/team/members?/invite', { email: 'nope', role: 'engineer' });
 		expect(bad.status).toBe(400);
 		expect(await bad.text()).toContain('Enter a valid e-mail address');
+		const member = await post(owner.client, '/team/members?/invite', { email: owner.email, role: 'viewer' });
+		expect(member.status).toBe(400);
+		expect(await member.text()).toContain('is already a member of');
 		const failing = await post(owner.client, '/team/members?/invite', { email: 'crew@fail.example.test', role: 'viewer' });
 		expect(await failing.text()).toContain('The mail server refused the address crew@fail.example.test');
 		const kept = await testDb().select().from(invitations).where(and(eq(invitations.teamId, owner.teamId), eq(invitations.email, 'crew@fail.example.test')));

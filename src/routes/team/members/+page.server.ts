@@ -2,7 +2,7 @@
 import { fail } from '@sveltejs/kit';
 import { invitationRef, inviteInput, memberInput, roleChangeInput } from '$lib/schemas/team';
 import { db } from '$lib/server/db';
-import { membersOfTeam, pendingInvitations } from '$lib/server/db/queries/members';
+import { isMemberByEmail, membersOfTeam, pendingInvitations } from '$lib/server/db/queries/members';
 import { parseForm } from '$lib/server/forms';
 import { requireTeam, requireUser } from '$lib/server/permissions';
 import { cancel, invite, remove, resend, setRole } from '$lib/server/team/members';
@@ -23,6 +23,9 @@ export const actions: Actions = {
 		const team = requireTeam(event, 'manage_members');
 		const parsed = parseForm(await event.request.formData(), inviteInput);
 		if (!parsed.ok) return fail(400, { invite: { errors: parsed.errors, values: parsed.values } });
+		if (await isMemberByEmail(db, team.id, parsed.data.email)) {
+			return fail(400, { invite: { errors: { email: `${parsed.data.email} is already a member of ${team.name}.` }, values: parsed.values } });
+		}
 		const { invitation, mail } = await invite(event, team, requireUser(event), parsed.data);
 		return { notice: mail.sent ? `Invitation mailed to ${invitation.email}.` : null, mailError: mail.sent ? null : mail.message };
 	},

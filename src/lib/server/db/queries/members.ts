@@ -27,6 +27,17 @@ export async function memberOfTeam(db: Database, teamId: string, userId: string)
 	return row ?? null;
 }
 
+/** True when an account with this e-mail is already a member of the team. */
+export async function isMemberByEmail(db: Database, teamId: string, email: string) {
+	const [row] = await db
+		.select({ userId: memberships.userId })
+		.from(memberships)
+		.innerJoin(users, eq(users.id, memberships.userId))
+		.where(and(eq(memberships.teamId, teamId), eq(users.email, email.toLowerCase())))
+		.limit(1);
+	return !!row;
+}
+
 /** A team's invitations that are neither accepted nor cancelled (expired ones too, marked by their date), newest first. */
 export function pendingInvitations(db: Database, teamId: string) {
 	return db
