@@ -2,6 +2,7 @@
 // Runs every bench module in turn and prints its figures (`npm run bench`). Add new benches to BENCHES.
 
 import * as kinematics from './kinematics';
+import * as sharing from './sharing';
 import * as workspace from './workspace';
 
 /** A bench module: a name and a function that prints its figures. */
@@ -11,7 +12,8 @@ interface Bench {
 
 const BENCHES: [string, Bench][] = [
 	['kinematics', kinematics],
-	['workspace', workspace]
+	['workspace', workspace],
+	['sharing', sharing]
 ];
 
 for (const [name, bench] of BENCHES) {

@@ -3,7 +3,7 @@
 import { expect, test } from '@playwright/test';
 
 test('an owner invites a new engineer; the mailed link works and the new account can create a car in the team', async ({ page, browser }) => {
-	test.setTimeout(60_000);
+	test.setTimeout(90_000);
 	const stamp = Date.now();
 	const ownerEmail = `owner-${stamp}@example.test`;
 	const engineerEmail = `new-engineer-${stamp}@example.test`;

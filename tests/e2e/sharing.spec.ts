@@ -29,7 +29,7 @@ function consoleErrors(page: Page) {
 }
 
 test('an engineer mails a link; the fabricator opens it signed out, reads and prints the coordinates; revoked, it is gone', async ({ page, browser }) => {
-	test.setTimeout(90_000);
+	test.setTimeout(150_000);
 	await signIn(page, 'engineer@linkwright.test');
 	const { cornerId, revisionId } = await makeRevisions(page.request, `Shop link car ${Date.now()}`);
 	const fabricator = `fabricator-${Date.now()}@example.test`;

@@ -24,7 +24,7 @@ export const actions: Actions = {
 		const parsed = parseForm(await event.request.formData(), inviteInput);
 		if (!parsed.ok) return fail(400, { invite: { errors: parsed.errors, values: parsed.values } });
 		if (await isMemberByEmail(db, team.id, parsed.data.email)) {
-			return fail(400, { invite: { errors: { email: `${parsed.data.email} is already a member of ${team.name}.` }, values: parsed.values } });
+			return fail(400, { invite: { errors: { email: `${parsed.data.email} is already a member of ${team.name}.` }, values: { email: parsed.data.email, role: parsed.data.role } } });
 		}
 		const { invitation, mail } = await invite(event, team, requireUser(event), parsed.data);
 		return { notice: mail.sent ? `Invitation mailed to ${invitation.email}.` : null, mailError: mail.sent ? null : mail.message };
