@@ -9,7 +9,9 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 2,
 	retries: 0,
-	timeout: 30_000,
+	// Generous limits: the machine's two cores are shared, and the 3-D view renders in software (no GPU).
+	timeout: 60_000,
+	expect: { timeout: 10_000 },
 	reporter: [['list'], ['json', { outputFile: 'test-results/playwright.json' }]],
 	use: {
 		baseURL,
