@@ -1,5 +1,5 @@
 // Frame: ISO 8855 vehicle axes (x forward, y left, z up); benches report figures only, never assert on time.
-// Runs every bench module in turn and prints its figures (`npm run bench`). Add new benches to BENCHES.
+// Runs every bench module in turn and prints its figures (`npm run bench`, or `npm run bench -- NAME…`). Add new benches to BENCHES.
 
 import * as kinematics from './kinematics';
 import * as sharing from './sharing';
@@ -16,7 +16,10 @@ const BENCHES: [string, Bench][] = [
 	['sharing', sharing]
 ];
 
+// `npm run bench -- sharing` runs only the named benches.
+const only = process.argv.slice(2);
 for (const [name, bench] of BENCHES) {
+	if (only.length && !only.includes(name)) continue;
 	console.log(`\n== ${name}`);
 	await bench.run();
 }
