@@ -1,8 +1,13 @@
 // Sharing figures over HTTP on loopback: creating a link with its mail through the fake SMTP server, opening the
 // shop sheet signed out, downloading its CSV, and printing the sheet to PDF in Chromium. Prints figures only.
 // Uses the built app and the test database (prepared by the workspace bench before it, or by `npm test`).
+import { randomUUID } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { chromium } from '@playwright/test';
+import { databaseUrl, testDatabase } from '../scripts/db.mjs';
+import { hashPassword } from '../src/lib/server/auth/passwords';
+import { connect } from '../src/lib/server/db/connect';
+import { createUserWithTeam } from '../src/lib/server/db/queries/users';
 import { ensureBuild, waitForHttp } from '../scripts/setup.mjs';
 import { startTestMailServer, startTestServer } from '../scripts/test-server.mjs';
 
@@ -29,9 +34,14 @@ function line(label: string, times: number[]) {
 	console.log(`  ${label.padEnd(52)} p50 ${percentile(times, 50).toFixed(1).padStart(7)} ms   p95 ${percentile(times, 95).toFixed(1).padStart(7)} ms   (${times.length} runs)`);
 }
 
-/** A signed-in engineer's cookie header, through the credentials callback. */
+/** A fresh account with its own team (so the mail limit of earlier runs does not count), signed in: its cookie header. */
 async function signIn(base: string) {
-	const body = new URLSearchParams({ email: 'engineer@linkwright.test', password: 'linkwright-demo', callbackUrl: '/' });
+	const email = `bench-${randomUUID().slice(0, 8)}@example.test`;
+	const password = 'bench password long enough';
+	const { db, client } = connect(databaseUrl(testDatabase) as string, 1);
+	await createUserWithTeam(db, { email, name: 'Bench engineer', teamName: 'Bench team', passwordHash: await hashPassword(password) });
+	await client.end();
+	const body = new URLSearchParams({ email, password, callbackUrl: '/' });
 	const res = await fetch(`${base}/auth/callback/credentials`, { method: 'POST', body, redirect: 'manual', headers: { origin: base } });
 	return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
 }
