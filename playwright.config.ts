@@ -9,8 +9,9 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 2,
 	retries: 0,
+	// Generous limits: the machine's two cores are shared, and the 3-D view renders in software (no GPU).
+	timeout: 60_000,
 	expect: { timeout: 10_000 },
-	timeout: 60_000, // journeys sign in (argon2) and draw WebGL in software on a 2-core machine
 	reporter: [['list'], ['json', { outputFile: 'test-results/playwright.json' }]],
 	use: {
 		baseURL,

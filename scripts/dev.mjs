@@ -2,10 +2,16 @@
 // `npm run dev`: the same set-up as `npm start`, then Vite's dev server with hot reload on http://127.0.0.1:5173.
 import { spawn } from 'node:child_process';
 import { root } from './db.mjs';
-import { appEnv, ensurePackages, prepareDatabase } from './setup.mjs';
+import { smtpPort } from './mail-server.mjs';
+import { appEnv, ensurePackages, prepareDatabase, say } from './setup.mjs';
 
 ensurePackages();
 const databaseUrl = process.env.DATABASE_URL ?? prepareDatabase();
-const env = { ...process.env, ...appEnv({ databaseUrl, port: 5173 }) };
+const env = { ...process.env, ...appEnv({ databaseUrl, port: 5173, smtpPort }) };
+if (!process.env.SMTP_HOST) {
+	const { startMailServer } = await import('./mail-server.mjs');
+	const mail = await startMailServer({ port: smtpPort });
+	say(`fake SMTP server on 127.0.0.1:${mail.port}; messages at http://127.0.0.1:5173/dev/mail`);
+}
 const vite = spawn('npx', ['vite', 'dev', ...process.argv.slice(2)], { cwd: root, env, stdio: 'inherit' });
 vite.on('exit', (code) => process.exit(code ?? 0));

@@ -5,6 +5,7 @@ import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { root, start as startDatabase, databaseUrl, resetDatabase, appDatabase, testDatabase } from './db.mjs';
+import { mailboxDir } from './mail-server.mjs';
 
 const isRoot = process.getuid?.() === 0;
 
@@ -87,9 +88,12 @@ export function ensureBuild() {
 	fs.writeFileSync(stamp, new Date().toISOString());
 }
 
-/** The environment the app server runs with. */
-export function appEnv({ databaseUrl: url, port }) {
+/** The environment the app server runs with; mail goes to SMTP_HOST:SMTP_PORT, else to the fake server on smtpPort. */
+export function appEnv({ databaseUrl: url, port, smtpPort }) {
 	return {
+		SMTP_HOST: process.env.SMTP_HOST ?? '127.0.0.1',
+		SMTP_PORT: process.env.SMTP_HOST ? (process.env.SMTP_PORT ?? '587') : String(smtpPort),
+		LW_MAILBOX_DIR: mailboxDir(smtpPort),
 		DATABASE_URL: url,
 		AUTH_SECRET: authSecret(),
 		AUTH_TRUST_HOST: 'true',

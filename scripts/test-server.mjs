@@ -4,13 +4,23 @@ import { spawn } from 'node:child_process';
 import { databaseUrl, root, testDatabase } from './db.mjs';
 import { appEnv } from './setup.mjs';
 
-/** Starts the built app on port against the test database; returns the child process. */
-export function startTestServer(port) {
-	const env = { ...process.env, ...appEnv({ databaseUrl: databaseUrl(testDatabase), port }), LW_DEMO: 'true' };
+/** The fake SMTP server's port in tests (LW_SMTP_PORT, default 2526 so `npm start`'s 2525 can run beside). */
+export const testSmtpPort = Number(process.env.LW_SMTP_PORT ?? 2526);
+
+/** Starts the built app on port against the test database, mailing to the fake server; returns the child process. */
+export function startTestServer(port, smtpPort = testSmtpPort) {
+	const env = { ...process.env, ...appEnv({ databaseUrl: databaseUrl(testDatabase), port, smtpPort }), LW_DEMO: 'true' };
 	return spawn('node', ['build'], { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] });
 }
 
+/** Starts the fake SMTP server of the tests with an empty mailbox. */
+export async function startTestMailServer(smtpPort = testSmtpPort) {
+	const { startMailServer } = await import('./mail-server.mjs');
+	return startMailServer({ port: smtpPort, clear: true });
+}
+
 if (import.meta.url === `file://${process.argv[1]}`) {
+	await startTestMailServer();
 	const child = startTestServer(Number(process.env.LW_TEST_PORT ?? 3100));
 	for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal));
 	child.on('exit', (code) => process.exit(code ?? 0));

@@ -1,12 +1,12 @@
 #!/usr/bin/env node
 // `npm test`: the same set-up as `npm start` against a fresh test database, then every test:
 // Vitest (unit, then integration against the real database and the built app), then Playwright in Chromium.
-import { spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { databaseUrl, root, testDatabase } from './db.mjs';
 import { ensureBuild, ensureChromium, ensurePackages, prepareDatabase, say, waitForHttp } from './setup.mjs';
-import { startTestServer } from './test-server.mjs';
+import { startTestMailServer, startTestServer, testSmtpPort } from './test-server.mjs';
 
 ensurePackages();
 ensureChromium();
@@ -15,23 +15,38 @@ ensureBuild();
 
 const port = Number(process.env.LW_TEST_PORT ?? 3100);
 const baseUrl = `http://127.0.0.1:${port}`;
+const mail = await startTestMailServer();
+say(`fake SMTP server on 127.0.0.1:${mail.port}`);
 const server = startTestServer(port);
 process.on('exit', () => server.kill('SIGKILL'));
 await waitForHttp(`${baseUrl}/signin`);
 
 const results = path.join(root, 'test-results');
 fs.mkdirSync(results, { recursive: true });
-const env = { ...process.env, LW_TEST_BASE_URL: baseUrl, TEST_DATABASE_URL: databaseUrl(testDatabase) };
+const env = {
+	...process.env,
+	LW_TEST_BASE_URL: baseUrl,
+	TEST_DATABASE_URL: databaseUrl(testDatabase),
+	LW_SMTP_PORT: String(testSmtpPort),
+	LW_MAILBOX_DIR: mail.dir
+};
 
-/** Runs one test runner with inherited output; returns its exit status. */
+/**
+ * Runs one test runner with inherited output; resolves to its exit status. Asynchronous on purpose: the fake SMTP
+ * server lives in this process and must keep answering while the tests send mail.
+ */
 function runner(command, args) {
-	return spawnSync(command, args, { cwd: root, env, stdio: 'inherit' }).status ?? 1;
+	return new Promise((resolve) => {
+		const child = spawn(command, args, { cwd: root, env, stdio: 'inherit' });
+		child.on('exit', (code) => resolve(code ?? 1));
+		child.on('error', () => resolve(1));
+	});
 }
 
 say('vitest: unit and integration');
-const vitest = runner('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${results}/vitest.json`]);
+const vitest = await runner('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${results}/vitest.json`]);
 say('playwright: browser journeys in Chromium');
-const playwright = runner('npx', ['playwright', 'test']);
+const playwright = await runner('npx', ['playwright', 'test']);
 
 /** Counts passed and failed tests from the runners' JSON reports. */
 function counts() {

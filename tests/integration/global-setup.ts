@@ -3,18 +3,22 @@
 import type { ChildProcess } from 'node:child_process';
 
 let server: ChildProcess | null = null;
+let mail: { close: () => Promise<unknown> } | null = null;
 
 export async function setup() {
 	if (process.env.LW_TEST_BASE_URL) return;
-	const { startTestServer } = await import('../../scripts/test-server.mjs');
+	const { startTestServer, startTestMailServer } = await import('../../scripts/test-server.mjs');
 	const { waitForHttp } = await import('../../scripts/setup.mjs');
-	const port = 3150;
+	// Beside `npm test`'s own port, so a run alone does not take another checkout's default.
+	const port = Number(process.env.LW_TEST_PORT ?? 3100) + 50;
+	mail = await startTestMailServer();
 	server = startTestServer(port);
 	process.env.LW_TEST_BASE_URL = `http://127.0.0.1:${port}`;
 	await waitForHttp(`${process.env.LW_TEST_BASE_URL}/signin`);
 }
 
 export async function teardown() {
+	await mail?.close();
 	if (!server) return;
 	const exited = new Promise((resolve) => server!.once('exit', resolve));
 	server.kill('SIGKILL');

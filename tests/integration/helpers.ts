@@ -5,7 +5,7 @@ import { createUserWithTeam } from '../../src/lib/server/db/queries/users';
 import { hashPassword } from '../../src/lib/server/auth/passwords';
 import { databaseUrl, testDatabase } from '../../scripts/db.mjs';
 
-export const baseUrl = () => process.env.LW_TEST_BASE_URL ?? 'http://127.0.0.1:3150';
+export const baseUrl = () => process.env.LW_TEST_BASE_URL ?? `http://127.0.0.1:${Number(process.env.LW_TEST_PORT ?? 3100) + 50}`;
 export const DEMO_PASSWORD = 'linkwright-demo';
 export const DEMO_CAR_ID = '00000000-0000-4000-8000-00000000ca01';
 export const DEMO_TEAM_ID = '00000000-0000-4000-8000-00000000d3e0';

@@ -12,8 +12,16 @@ const schema = z.object({
 	AUTH_SECRET: z.string().min(32, { message: 'AUTH_SECRET must be at least 32 characters' }),
 	AUTH_TRUST_HOST: flag,
 	LW_DEMO: flag,
-	SMTP_URL: z.string().optional(),
-	MAIL_FROM: z.string().default('Linkwright <no-reply@linkwright.test>')
+	ORIGIN: z.string().url({ message: 'ORIGIN must be the public URL, e.g. https://linkwright.example.test' }).optional(),
+	// Outgoing mail (nodemailer over SMTP). `npm start`, `npm run dev` and `npm test` point these at the fake server.
+	SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+	SMTP_PORT: z.coerce.number({ message: 'SMTP_PORT must be a port number' }).int().min(1).max(65535).default(2525),
+	SMTP_SECURE: flag,
+	SMTP_USER: z.string().optional(),
+	SMTP_PASS: z.string().optional(),
+	MAIL_FROM: z.string().min(3).default('Linkwright <no-reply@linkwright.test>'),
+	// The fake SMTP server's folder, read by the mailbox page in development and demo mode.
+	LW_MAILBOX_DIR: z.string().optional()
 });
 
 export type ServerEnv = z.infer<typeof schema>;

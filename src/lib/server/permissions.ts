@@ -3,6 +3,7 @@ import { error, redirect, type RequestEvent } from '@sveltejs/kit';
 import { db } from '$lib/server/db';
 import { carForUser } from '$lib/server/db/queries/cars';
 import { cornerForUser, revisionForUser } from '$lib/server/db/queries/corners';
+import { shareForUser } from '$lib/server/db/queries/shares';
 import type { Role } from '$lib/server/db/schema';
 import type { TeamRole } from '$lib/server/db/queries/users';
 
@@ -72,4 +73,9 @@ export async function requireCorner(event: RequestEvent, cornerId: string, actio
 /** A revision (with its corner and car) the caller may act on; 404 / 403 as for cars. */
 export async function requireRevision(event: RequestEvent, revisionId: string, action: Action) {
 	return allowed(await revisionForUser(db, requireUser(event).id, revisionId), 'Revision', action);
+}
+
+/** A share link of one of the caller's teams they may act on; 404 / 403 as for cars. */
+export async function requireShare(event: RequestEvent, shareId: string, action: Action) {
+	return allowed(await shareForUser(db, requireUser(event).id, shareId), 'Share link', action);
 }

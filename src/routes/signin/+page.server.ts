@@ -20,7 +20,11 @@ export const load: PageServerLoad = ({ locals, url }) => {
 	if (locals.user) redirect(303, redirectTo);
 	const error = url.searchParams.get('error');
 	const code = url.searchParams.get('code') ?? 'credentials';
-	return { redirectTo, message: error ? (MESSAGES[code] ?? MESSAGES.credentials) : null };
+	return {
+		redirectTo,
+		message: error ? (MESSAGES[code] ?? MESSAGES.credentials) : null,
+		notice: url.searchParams.get('reset') === '1' ? 'Your password was changed. Sign in with the new one.' : null
+	};
 };
 
 export const actions: Actions = {

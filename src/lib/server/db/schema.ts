@@ -279,6 +279,19 @@ export const loginAttempts = pgTable(
 	]
 );
 
+// Counted events for rate limits (share-link opens, mails sent, reset requests), kept in the database so
+// every app instance sees the same counts. Old rows are pruned as new ones are written.
+export const rateEvents = pgTable(
+	'rate_events',
+	{
+		id: bigserial('id', { mode: 'number' }).primaryKey(),
+		bucket: text('bucket').notNull(),
+		key: text('key').notNull(),
+		createdAt: created()
+	},
+	(t) => [index('rate_events_bucket_key_idx').on(t.bucket, t.key, t.createdAt)]
+);
+
 export type User = typeof users.$inferSelect;
 export type Team = typeof teams.$inferSelect;
 export type Membership = typeof memberships.$inferSelect;
@@ -286,3 +299,5 @@ export type Car = typeof cars.$inferSelect;
 export type Corner = typeof corners.$inferSelect;
 export type Revision = typeof revisions.$inferSelect;
 export type Role = (typeof ROLES)[number];
+export type ShareLink = typeof shareLinks.$inferSelect;
+export type Invitation = typeof invitations.$inferSelect;
