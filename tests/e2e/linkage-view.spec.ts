@@ -42,7 +42,7 @@ test('the 3-D linkage view renders, follows the travel slider and the preset vie
 	await page.setViewportSize({ width: 1440, height: 900 });
 	await page.goto('/dev/linkage');
 	const canvas = page.getByTestId('linkage-canvas');
-	await expect(canvas).toBeVisible();
+	await expect(canvas).toBeVisible({ timeout: 30_000 }); // three.js and a software WebGL context start slowly on a busy machine
 	await expect(canvas).toHaveAttribute('aria-label', /3-D view of the double wishbone linkage/);
 	await expect(page.getByRole('button', { name: 'Front view, looking rearward' })).toBeEnabled();
 
