@@ -10,7 +10,7 @@ export default defineConfig({
 	workers: 2,
 	retries: 0,
 	// Generous limits: the machine's two cores are shared, and the 3-D view renders in software (no GPU).
-	timeout: 60_000,
+	timeout: 90_000,
 	expect: { timeout: 10_000 },
 	reporter: [['list'], ['json', { outputFile: 'test-results/playwright.json' }]],
 	use: {
