@@ -118,7 +118,7 @@ describe('opening a link signed out', () => {
 		expect(html).toContain('ISO 8855');
 		expect(html).toContain('millimetres');
 		expect(html).toContain('Weld the new rack brackets');
-		expect(html).toContain('structural and welded changes are for qualified fabricators');
+		expect(html).toContain('Structural and welded changes are for qualified fabricators');
 		expect(html).not.toMatch(/href="\/(cars|corners|revisions|team|api|account|signin|signup|docs)?["/?]/);
 		expect(html).not.toContain('Demo Motorsport Club');
 	});
