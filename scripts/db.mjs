@@ -116,6 +116,27 @@ function writeState(state) {
 	fs.writeFileSync(stateFile, JSON.stringify(state, null, 2), { mode: 0o600 });
 }
 
+/**
+ * The password for the cluster under parent. A fallback folder outside the checkout outlives it: a fresh clone at
+ * the same path finds the old cluster there, so the password is kept beside the cluster (root or the owner only)
+ * and reused. A cluster whose password is unknown is moved aside (kept, not deleted) and a new one is made.
+ */
+function adoptPassword(bin, parent, known) {
+	const file = path.join(parent, 'lw-password');
+	const dataDir = path.join(parent, 'data');
+	let password = known;
+	if (!password && fs.existsSync(file)) password = fs.readFileSync(file, 'utf8').trim();
+	if (!password && fs.existsSync(path.join(dataDir, 'PG_VERSION'))) {
+		if (isRunning(bin, dataDir)) runPg(path.join(bin, 'pg_ctl'), ['-D', dataDir, '-m', 'fast', '-w', 'stop']);
+		const aside = `${dataDir}.orphan-${Date.now()}`;
+		say(`a cluster with an unknown password is in ${dataDir}; moved to ${aside}`);
+		fs.renameSync(dataDir, aside);
+	}
+	password ||= randomBytes(18).toString('base64url');
+	fs.writeFileSync(file, password + '\n', { mode: 0o600 });
+	return password;
+}
+
 /** Creates the cluster when its folder holds none. */
 function ensureCluster(bin, state) {
 	const dataDir = state.dataDir;
@@ -182,7 +203,7 @@ export function start() {
 	let state = readState();
 	if (!state || !fs.existsSync(path.join(state.dataDir, 'PG_VERSION'))) {
 		const parent = chooseDataParent();
-		state = { dataDir: path.join(parent, 'data'), password: state?.password ?? randomBytes(18).toString('base64url') };
+		state = { dataDir: path.join(parent, 'data'), password: adoptPassword(bin, parent, state?.password) };
 		writeState(state);
 	}
 	ensureCluster(bin, state);
