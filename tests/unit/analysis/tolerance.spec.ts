@@ -76,7 +76,7 @@ describe('sampling', () => {
 		expect(Math.abs(v / N - 1)).toBeLessThan(0.02); // standard error of the variance 0.0045
 	});
 
-	it('sphere mode stays inside the ball and fills it (mean r² = 3/5 r² for uniform in a ball)', () => {
+	it('sphere mode stays inside the ball and fills it (uniform in a ball: the mean squared radius is three fifths of the ball radius squared)', () => {
 		const s = spec(2, 1);
 		s.tolerances = [{ point: 'steer.inner', mm: 2, mode: 'sphere' }];
 		const out = new Float64Array(3);
