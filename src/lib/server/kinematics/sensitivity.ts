@@ -3,21 +3,12 @@
 // differences of the whole heave sweep, ranked so the engineer sees which points matter.
 
 import type { CornerInput } from './corner';
+import { POINT_NAMES } from './sweep';
 import { AXES, CornerEvaluator, toChange, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 
-/** Points whose placement a fabricator sets (chassis brackets and upright joints), in this order. */
-export const LINKAGE_POINTS = [
-	'lower.front',
-	'lower.rear',
-	'lower.outer',
-	'upper.front',
-	'upper.rear',
-	'upper.outer',
-	'strut.top',
-	'strut.lower',
-	'steer.inner',
-	'steer.outer'
-] as const;
+/** Points whose placement a fabricator sets (chassis brackets and upright joints): the solver's points, less the
+ * wheel's spin axis and the spring ends, in the solver's order. */
+export const LINKAGE_POINTS = POINT_NAMES.slice(0, POINT_NAMES.indexOf('wheel.centre'));
 
 /** Scalar figures ranked: change over the range (value at `to` minus value at `from`) or the design value. */
 export const SCALAR_MEASURES = {

@@ -67,15 +67,21 @@ async function lockedOwnerCount(tx: Tx, teamId: string) {
 	return rows.length;
 }
 
+/** One member's role, its row locked until the transaction ends; undefined when not a member. */
+async function lockedMember(tx: Parameters<typeof lockedOwnerCount>[0], teamId: string, userId: string) {
+	const [member] = await tx
+		.select({ role: memberships.role })
+		.from(memberships)
+		.where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)))
+		.for('update');
+	return member;
+}
+
 /** Changes a member's role, refusing to demote the last owner. */
 export function changeRole(db: Database, teamId: string, userId: string, role: Role): Promise<RoleChange> {
 	return db.transaction(async (tx) => {
 		const owners = await lockedOwnerCount(tx, teamId);
-		const [member] = await tx
-			.select({ role: memberships.role })
-			.from(memberships)
-			.where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)))
-			.for('update');
+		const member = await lockedMember(tx, teamId, userId);
 		if (!member) return { ok: false, reason: 'not_member' };
 		if (member.role === 'owner' && role !== 'owner' && owners <= 1) return { ok: false, reason: 'last_owner' };
 		await tx.update(memberships).set({ role }).where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)));
@@ -87,11 +93,7 @@ export function changeRole(db: Database, teamId: string, userId: string, role: R
 export function removeMember(db: Database, teamId: string, userId: string): Promise<RoleChange> {
 	return db.transaction(async (tx) => {
 		const owners = await lockedOwnerCount(tx, teamId);
-		const [member] = await tx
-			.select({ role: memberships.role })
-			.from(memberships)
-			.where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)))
-			.for('update');
+		const member = await lockedMember(tx, teamId, userId);
 		if (!member) return { ok: false, reason: 'not_member' };
 		if (member.role === 'owner' && owners <= 1) return { ok: false, reason: 'last_owner' };
 		await tx.delete(memberships).where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)));
