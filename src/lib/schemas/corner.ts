@@ -32,6 +32,32 @@ const num = (name: string) =>
 		z.number({ message: `${name} must be a number` }).refine(Number.isFinite, `${name} must be a number`).optional()
 	);
 
+/** The per-sample quantities of corner-solve/1 (shared/geometry-format.md) that a caller can ask for alone. */
+export const SAMPLE_FIELDS = [
+	'camber',
+	'toe',
+	'caster',
+	'kpi',
+	'scrub_radius',
+	'trail',
+	'half_track_change',
+	'wheelbase_change',
+	'fvic',
+	'fvsa',
+	'rc_height',
+	'svic',
+	'anti_dive',
+	'anti_squat',
+	'camber_ground',
+	'motion_ratio',
+	'wheel_centre',
+	'contact_patch'
+] as const;
+export type SampleField = (typeof SAMPLE_FIELDS)[number];
+
+/** A list from a query string ("toe,camber") or a body (["toe", "camber"]). */
+const list = (v: unknown) => (typeof v === 'string' ? v.split(',').map((s) => s.trim()).filter(Boolean) : v);
+
 /** Sweep settings from a query string or a body; missing values take the contract's defaults. */
 export const sweepQuery = z
 	.object({
@@ -40,11 +66,20 @@ export const sweepQuery = z
 		to: num('to'),
 		step: num('step'),
 		rack: num('rack'),
-		points: z.preprocess((v) => v === true || v === 'true' || v === '1', z.boolean()).optional()
+		points: z.preprocess((v) => v === true || v === 'true' || v === '1', z.boolean()).optional(),
+		/** only these quantities in each sample (the sweep variable always comes); all when absent */
+		fields: z
+			.preprocess(
+				list,
+				z.array(z.enum(SAMPLE_FIELDS, { message: `fields: each must be one of ${SAMPLE_FIELDS.join(', ')}` }), { message: 'fields must be a list of sample quantities' })
+			)
+			.optional(),
+		/** every number of the samples rounded to this many decimals; full precision when absent */
+		decimals: num('decimals').refine((v) => v === undefined || (Number.isInteger(v) && v >= 0 && v <= 12), 'decimals must be a whole number from 0 to 12')
 	})
 	.transform((q) => {
 		const d = SWEEP_DEFAULTS[q.sweep];
-		return { sweep: q.sweep, from: q.from ?? d.from, to: q.to ?? d.to, step: q.step ?? d.step, rack: q.rack, points: q.points };
+		return { sweep: q.sweep, from: q.from ?? d.from, to: q.to ?? d.to, step: q.step ?? d.step, rack: q.rack, points: q.points, fields: q.fields, decimals: q.decimals };
 	})
 	.refine((q) => q.step > 0, { path: ['step'], message: 'step must be > 0' })
 	.refine((q) => q.from <= q.to, { path: ['from'], message: 'from must be <= to' })

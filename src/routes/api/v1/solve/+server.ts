@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { solveBody } from '$lib/schemas/corner';
 import { endpoint, parseBody } from '$lib/server/api';
-import { solveCorner } from '$lib/server/corners/solve';
+import { solveForApi } from '$lib/server/corners/solve';
 import { requireUser } from '$lib/server/permissions';
 import type { RequestEvent } from './$types';
 
@@ -9,5 +9,5 @@ import type { RequestEvent } from './$types';
 export const POST = endpoint<RequestEvent>(async (event) => {
 	requireUser(event);
 	const { geometry, options } = await parseBody(event, solveBody);
-	return json(solveCorner(geometry, options));
+	return json(solveForApi(geometry, options));
 });

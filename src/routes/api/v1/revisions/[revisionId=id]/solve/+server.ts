@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { sweepQuery } from '$lib/schemas/corner';
 import { cornerGeometrySchema } from '$lib/schemas/geometry';
 import { endpoint, parseQuery, parseWith } from '$lib/server/api';
-import { solveCorner } from '$lib/server/corners/solve';
+import { solveForApi } from '$lib/server/corners/solve';
 import { requireRevision } from '$lib/server/permissions';
 import type { RequestEvent } from './$types';
 
@@ -11,5 +11,5 @@ export const GET = endpoint<RequestEvent>(async (event) => {
 	const { revision } = await requireRevision(event, event.params.revisionId, 'view');
 	const options = parseQuery(event, sweepQuery);
 	const geometry = parseWith(cornerGeometrySchema, revision.geometry);
-	return json(solveCorner(geometry, options));
+	return json(solveForApi(geometry, options));
 });
