@@ -1,7 +1,7 @@
 // Who is calling: a session cookie (pages) or an API token (Authorization: Bearer), and their teams.
 import type { RequestEvent } from '@sveltejs/kit';
 import { db } from '$lib/server/db';
-import { findUserById, teamsOfUser, userByApiToken } from '$lib/server/db/queries/users';
+import { accountWithTeams, userByApiToken } from '$lib/server/db/queries/users';
 import { hashToken } from './tokens';
 
 export const TEAM_COOKIE = 'lw_team';
@@ -23,8 +23,7 @@ const KNOWN_MAX = 2000;
 /** Fills locals.user, locals.teams and locals.team for this request. */
 export async function loadAccount(event: RequestEvent) {
 	const id = await callerId(event);
-	// the account and its teams in parallel: one round trip to the database, not two
-	const [user, teams] = id ? await Promise.all([findUserById(db, id), teamsOfUser(db, id)]) : [null, []];
+	const { user, teams } = id ? await accountWithTeams(db, id) : { user: null, teams: [] };
 	event.locals.user = user;
 	event.locals.teams = user ? teams : [];
 	const wanted = event.cookies.get(TEAM_COOKIE);

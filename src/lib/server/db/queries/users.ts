@@ -25,14 +25,22 @@ export async function findUserById(db: Database, id: string) {
 	return row ?? null;
 }
 
-/** The teams a user belongs to with the user's role in each, by name. */
-export function teamsOfUser(db: Database, userId: string): Promise<TeamRole[]> {
-	return db
-		.select({ id: teams.id, name: teams.name, role: memberships.role })
-		.from(memberships)
-		.innerJoin(teams, eq(teams.id, memberships.teamId))
-		.where(eq(memberships.userId, userId))
+/**
+ * The account with this id (without its password hash) and its teams by name, in one statement: every
+ * request reads both, and one round trip to the database is a millisecond or two less than two.
+ */
+export async function accountWithTeams(db: Database, id: string): Promise<{ user: { id: string; email: string; name: string } | null; teams: TeamRole[] }> {
+	const rows = await db
+		.select({ id: users.id, email: users.email, name: users.name, teamId: teams.id, teamName: teams.name, role: memberships.role })
+		.from(users)
+		.leftJoin(memberships, eq(memberships.userId, users.id))
+		.leftJoin(teams, eq(teams.id, memberships.teamId))
+		.where(eq(users.id, id))
 		.orderBy(asc(teams.name));
+	if (rows.length === 0) return { user: null, teams: [] };
+	const { email, name } = rows[0];
+	const list = rows.flatMap((r) => (r.teamId && r.teamName && r.role ? [{ id: r.teamId, name: r.teamName, role: r.role }] : []));
+	return { user: { id, email, name }, teams: list };
 }
 
 /** Creates an account and its own team with the account as owner, in one transaction. */
