@@ -132,6 +132,17 @@ export function xGrid(series: readonly Series[]): number[] {
 	return out;
 }
 
+/**
+ * `prev` when `next` holds the same values in the same order, else `next`: a domain, grid or colour list that
+ * did not change keeps its identity, so what is drawn from it (scales, ticks, axes, other curves) is not
+ * redrawn when only one curve moved.
+ */
+export function keepIfSame<T extends readonly unknown[]>(prev: T | undefined, next: T): T {
+	if (!prev || prev.length !== next.length) return next;
+	for (let i = 0; i < next.length; i++) if (!Object.is(prev[i], next[i])) return next;
+	return prev;
+}
+
 /** The value of sorted `grid` nearest to x; null for an empty grid. */
 export function nearest(grid: readonly number[], x: number): number | null {
 	if (grid.length === 0) return null;

@@ -56,9 +56,14 @@ async function sessionUserId(event: RequestEvent): Promise<string | null> {
 	if (hit) known.delete(sent);
 	const session = await event.locals.auth();
 	const id = session?.user?.id ?? null;
-	// Auth.js has set the renewed cookie on this response: the browser sends that one next.
-	const renewed = sessionCookie(event);
-	if (id && renewed) remember(renewed, id, Math.min(now + REREAD_MS, Date.parse(session!.expires) || now));
+	if (id) {
+		// Auth.js has set a renewed cookie on this response: a browser sends that one next, a script may keep the
+		// old one (which, accepted just now, grants nothing the renewed one does not)
+		const until = Math.min(now + REREAD_MS, Date.parse(session!.expires) || now);
+		remember(sent, id, until);
+		const renewed = sessionCookie(event);
+		if (renewed && renewed !== sent) remember(renewed, id, until);
+	}
 	return id;
 }
 
