@@ -20,9 +20,11 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 		session: { strategy: 'jwt', maxAge: 30 * 24 * 3600 },
 		pages: { signIn: '/signin', error: '/signin' },
 		logger: {
-			// A wrong password is an expected outcome, not a server error worth a stack trace.
+			// A wrong password, or a session cookie that is expired or not ours, is an expected outcome, not a
+			// server error worth a stack trace.
 			error(err: Error) {
-				if ((err as Error & { type?: string }).type !== 'CredentialsSignin') console.error(err);
+				const type = (err as Error & { type?: string }).type;
+				if (type !== 'CredentialsSignin' && type !== 'JWTSessionError') console.error(err);
 			}
 		},
 		providers: [

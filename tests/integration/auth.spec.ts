@@ -1,5 +1,7 @@
 import { afterAll, describe, expect, test } from 'vitest';
-import { Client, DEMO_CAR_ID, closeDb, freshAccount } from './helpers';
+import { eq } from 'drizzle-orm';
+import { memberships } from '../../src/lib/server/db/schema';
+import { Client, DEMO_CAR_ID, baseUrl, closeDb, freshAccount, testDb } from './helpers';
 
 afterAll(closeDb);
 
@@ -36,6 +38,20 @@ describe('sign-in', () => {
 		const location = await client.signIn(email, password);
 		expect(location).toContain('code=rate_limited');
 		expect(client.signedIn).toBe(false);
+	});
+
+	test('a session cookie read a moment ago keeps working unrenewed; a changed one is refused; the account still follows its teams', async () => {
+		const { client, teamId } = await freshAccount('cookie');
+		const jar = [...client.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+		// a script that never stores the renewed cookie: the same cookie, again and again
+		for (let i = 0; i < 3; i++) expect((await fetch(`${baseUrl()}/api/v1/cars`, { headers: { cookie: jar } })).status).toBe(200);
+		const token = client.cookies.get('authjs.session-token')!;
+		const changed = jar.replace(token, token.slice(0, -4) + (token.endsWith('AAAA') ? 'BBBB' : 'AAAA'));
+		expect((await fetch(`${baseUrl()}/api/v1/cars`, { headers: { cookie: changed } })).status).toBe(401);
+		// the account's teams are read on every request, however recently its cookie was read
+		await testDb().delete(memberships).where(eq(memberships.teamId, teamId));
+		const me = await fetch(`${baseUrl()}/api/v1/cars?team=${teamId}`, { headers: { cookie: jar } });
+		expect(me.status).toBe(404);
 	});
 
 	test('sign-out clears the session', async () => {

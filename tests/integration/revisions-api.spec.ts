@@ -148,6 +148,33 @@ describe('export and solve', () => {
 		expect((await new Client().json('/api/v1/solve', 'POST', { geometry: stock })).status).toBe(401);
 	});
 
+	test('fields= and decimals= cut each sample to the asked quantities, rounded; bad ones are refused naming the field', async () => {
+		const sweep = { geometry: stock, sweep: 'heave', from: -20, to: 20, step: 10 };
+		const full = await (await viewer.json('/api/v1/solve', 'POST', sweep)).json();
+		const cut = await (await viewer.json('/api/v1/solve', 'POST', { ...sweep, fields: ['toe', 'fvic'], decimals: 3 })).json();
+		expect(cut.format).toBe('corner-solve/1');
+		expect(cut.samples).toHaveLength(full.samples.length);
+		const round = (v: number) => Math.round(v * 1000) / 1000;
+		cut.samples.forEach((s: Record<string, unknown>, i: number) => {
+			const f = full.samples[i];
+			expect(Object.keys(s)).toEqual(['travel', 'toe', 'fvic']);
+			expect(s.toe).toBe(round(f.toe));
+			expect(s.fvic).toEqual(f.fvic === null ? null : f.fvic.map(round));
+		});
+		// the same in a query string, on a saved revision
+		const list = await (await viewer.fetch(`/api/v1/corners/${cornerId}/revisions`)).json();
+		const saved = await (await viewer.fetch(`/api/v1/revisions/${list.revisions.at(-1).id}/solve?fields=camber,toe&decimals=2&from=0&to=0`)).json();
+		expect(Object.keys(saved.samples[0])).toEqual(['travel', 'camber', 'toe']);
+		expect(Math.abs(saved.samples[0].camber * 100 - Math.round(saved.samples[0].camber * 100))).toBeLessThan(1e-9);
+
+		const unknown = await viewer.json('/api/v1/solve', 'POST', { ...sweep, fields: ['toe', 'bump_steer'] });
+		expect(unknown.status).toBe(400);
+		expect((await unknown.json()).error.field).toBe('fields.1');
+		const tooFine = await viewer.json('/api/v1/solve', 'POST', { ...sweep, decimals: 13 });
+		expect(tooFine.status).toBe(400);
+		expect((await tooFine.json()).error.field).toBe('decimals');
+	});
+
 	test('a corner that cannot be assembled returns the solved part and names the link', async () => {
 		const cannot = JSON.parse(readFileSync('fixtures/cannot-assemble.json', 'utf8'));
 		const res = await viewer.json('/api/v1/solve', 'POST', { geometry: cannot, sweep: 'heave', from: -50, to: 50, step: 5 });

@@ -7,6 +7,7 @@ import {
 	extent,
 	formatNumber,
 	formatValue,
+	keepIfSame,
 	hasData,
 	linePath,
 	nearest,
@@ -150,6 +151,26 @@ describe('paths and data checks', () => {
 		expect(withinBand(inside.map((p) => (p.x === 40 ? { x: 40, y: 0.11 } : p)), band)).toBe(false);
 		expect(withinBand(inside.map((p) => (p.x === 0 ? { x: 0, y: null } : p)), band)).toBe(false);
 		expect(withinBand([{ x: 60, y: 0 }], band)).toBe(false);
+	});
+});
+
+describe('keepIfSame (unchanged domains and grids keep their identity)', () => {
+	it('keeps the earlier array when the values match, takes the new one otherwise', () => {
+		const before: [number, number] = [-2, 2];
+		expect(keepIfSame(before, [-2, 2])).toBe(before);
+		const moved: [number, number] = [-2, 2.5];
+		expect(keepIfSame(before, moved)).toBe(moved);
+		const longer = [-2, 2, 3];
+		expect(keepIfSame<number[]>(before, longer)).toBe(longer);
+		const first = [1];
+		expect(keepIfSame(undefined, first)).toBe(first);
+	});
+
+	it('treats NaN as equal to NaN and −0 as unlike +0 (Object.is)', () => {
+		const a = [NaN, 0];
+		expect(keepIfSame(a, [NaN, 0])).toBe(a);
+		const b = [-0];
+		expect(keepIfSame([0], b)).toBe(b);
 	});
 });
 
