@@ -11,7 +11,7 @@ import { startTestServer } from '../scripts/test-server.mjs';
 const CLIENT = '.svelte-kit/output/client';
 const PAGE = 'src/routes/corners/[cornerId=id]/+page.svelte';
 const LAZY = 'src/lib/components/LinkageView.svelte';
-const EDITS = 60;
+const EDITS = 100;
 
 type Manifest = Record<string, { file: string; imports?: string[]; dynamicImports?: string[]; isEntry?: boolean }>;
 
@@ -64,6 +64,19 @@ async function editToRedraw(baseUrl: string) {
 		await page.goto(`${baseUrl}/corners/00000000-0000-4000-8000-0000000000f1`);
 		await page.locator('[data-testid="chart-toe"] path[data-series="draft"]').waitFor();
 		await page.locator('[data-testid="linkage-canvas"][data-draws]').waitFor();
+		// As an engineer works: the edited row and the toe chart both in view (the page scrolled so the chart's
+		// bottom sits at the window's), so the measured frame paints the visible chart.
+		await page.evaluate(`(() => {
+			const chart = document.querySelector('[data-testid="chart-toe"]').getBoundingClientRect();
+			window.scrollBy(0, Math.max(0, chart.bottom + window.scrollY - window.innerHeight + 24) - window.scrollY);
+		})()`);
+		const inView = await page.evaluate(`(() => {
+			const r = (s) => document.querySelector(s).getBoundingClientRect();
+			const a = r('input[aria-label="Tie rod, outer joint, z in mm"]');
+			const b = r('[data-testid="chart-toe"]');
+			return a.top >= 0 && b.bottom <= window.innerHeight;
+		})()`);
+		if (!inView) throw new Error('the edited input and the toe chart do not fit in the window together');
 		await page.waitForTimeout(1000);
 		const charts: number[] = [];
 		const scene: number[] = [];
@@ -80,7 +93,7 @@ async function editToRedraw(baseUrl: string) {
 				const until = (done) => new Promise((resolve) => { const check = () => (done() ? resolve() : requestAnimationFrame(check)); check(); });
 				const nextFrame = () => new Promise((r) => requestAnimationFrame(() => r(null)));
 				const t0 = performance.now();
-				input.focus();
+				input.focus({ preventScroll: true });
 				input.value = v;
 				input.dispatchEvent(new Event('input', { bubbles: true }));
 				await until(() => path().getAttribute('d') !== before);
