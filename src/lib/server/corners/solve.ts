@@ -2,9 +2,7 @@
 import { error } from '@sveltejs/kit';
 import type { CornerGeometry } from '$lib/schemas/geometry';
 import type { SampleField, SweepQuery } from '$lib/schemas/corner';
-import { CornerGeometryError, SweepOptionsError, solveSweep, type Sample } from '$lib/server/kinematics';
-
-const SWEEP_VAR = { heave: 'travel', roll: 'roll', steer: 'rack' } as const;
+import { CornerGeometryError, SWEEP_VAR, SweepOptionsError, solveSweep, type Sample } from '$lib/server/kinematics';
 
 /** The solve output of the contract, plus the error that stopped the sweep (null when complete). */
 export function solveCorner(geometry: CornerGeometry, options: Pick<SweepQuery, 'sweep' | 'from' | 'to' | 'step'> & Partial<SweepQuery>) {
@@ -28,7 +26,7 @@ export function solveForApi(geometry: CornerGeometry, options: Pick<SweepQuery, 
 /**
  * Samples cut to the sweep variable and the asked quantities (all when `fields` is absent; the solved
  * points stay when they were asked for), every number rounded to `decimals` when given. The live preview
- * asks for the charted quantities to six decimals: a fifth of the bytes to write, send and read.
+ * asks for the charted quantities to six decimals: a third of the bytes to write, send and read.
  */
 export function shape(samples: Sample[], sweepKey: 'travel' | 'roll' | 'rack', fields?: readonly SampleField[], decimals?: number): Record<string, unknown>[] {
 	const scale = decimals === undefined ? 0 : 10 ** decimals;

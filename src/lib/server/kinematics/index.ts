@@ -82,7 +82,8 @@ export class CornerGeometryError extends Error {
 export class SweepOptionsError extends Error {}
 
 const SWEEP_CODE: Record<SweepKind, number> = { heave: F.SWEEP_HEAVE, roll: F.SWEEP_ROLL, steer: F.SWEEP_STEER };
-const SWEEP_VAR: Record<SweepKind, 'travel' | 'roll' | 'rack'> = { heave: 'travel', roll: 'roll', steer: 'rack' };
+/** The sample field that carries each sweep's variable. */
+export const SWEEP_VAR: Record<SweepKind, 'travel' | 'roll' | 'rack'> = { heave: 'travel', roll: 'roll', steer: 'rack' };
 
 /** A compiled corner with its own reusable buffers: for repeated sweeps of one corner. */
 export class CornerSolver {
