@@ -4,6 +4,7 @@
 // app, the API and the solve command. Client-safe: imports only zod.
 
 import { z } from 'zod';
+import { CORNER_KINDS, kindSpec, REQUIRED_POINTS, type KindSpec } from '../kinds';
 
 /** Limits of a plausible corner; kept here because this module must stay client-safe. */
 export const GEOMETRY_LIMITS = {
@@ -18,34 +19,7 @@ export const GEOMETRY_LIMITS = {
 	maxCoordinateMm: 100_000
 } as const;
 
-export const CORNER_KINDS = ['double_wishbone', 'strut'] as const;
-
-/** Points each kind needs (contract table). */
-export const REQUIRED_POINTS: Record<(typeof CORNER_KINDS)[number], readonly string[]> = {
-	double_wishbone: [
-		'lower.front',
-		'lower.rear',
-		'lower.outer',
-		'upper.front',
-		'upper.rear',
-		'upper.outer',
-		'steer.inner',
-		'steer.outer',
-		'wheel.centre',
-		'wheel.axis_inner'
-	],
-	strut: [
-		'lower.front',
-		'lower.rear',
-		'lower.outer',
-		'strut.top',
-		'strut.lower',
-		'steer.inner',
-		'steer.outer',
-		'wheel.centre',
-		'wheel.axis_inner'
-	]
-};
+export { CORNER_KINDS, REQUIRED_POINTS } from '../kinds';
 
 const coordinate = z
 	.number({ error: 'must be a finite number (mm)' })
@@ -65,14 +39,25 @@ export const vehicleSchema = z.object({
 	rear_drive_fraction: fraction('rear drive share').optional()
 });
 
+/** The `rocker` block: a pushrod or pullrod working the spring through a rocker (contract: "Rocker"). */
+export const rockerSchema = z.object({
+	pivot_a: pointSchema,
+	pivot_b: pointSchema,
+	rod_end: pointSchema,
+	spring_end: pointSchema,
+	rod_outer: pointSchema,
+	rod_on: z.enum(['lower', 'upper', 'upright', 'arm'], { error: "must be 'lower', 'upper', 'upright' or 'arm'" })
+});
+
 const baseSchema = z.object({
 	format: z.literal('corner-geometry/1', { error: "must be 'corner-geometry/1'" }),
 	name: z.string().optional(),
 	kind: z.enum(CORNER_KINDS, {
-		error: (iss) => `unknown kind ${JSON.stringify(iss.input)} (expected double_wishbone or strut)`
+		error: (iss) => `unknown kind ${JSON.stringify(iss.input)} (expected ${CORNER_KINDS.join(', ')})`
 	}),
 	points: z.record(z.string(), pointSchema, { error: 'must be an object of named [x, y, z] points' }),
-	spring_on: z.enum(['lower', 'upper', 'upright'], { error: "must be 'lower', 'upper' or 'upright'" }).optional(),
+	spring_on: z.enum(['lower', 'upper', 'upright', 'arm'], { error: "must be 'lower', 'upper', 'upright' or 'arm'" }).optional(),
+	rocker: rockerSchema.nullable().optional(),
 	tyre: z.object({
 		loaded_radius: z
 			.number({ error: 'must be a number (mm)' })
@@ -108,16 +93,19 @@ function checkRequired(c: Base, ctx: Ctx): boolean {
 	return ok;
 }
 
-/** An arm's pivots apart and its ball joint off the pivot axis (mm). */
-function checkArm(c: Base, ctx: Ctx, arm: 'lower' | 'upper'): void {
-	const f = c.points[`${arm}.front`];
-	const r = c.points[`${arm}.rear`];
-	const o = c.points[`${arm}.outer`];
-	const axis = sub(r, f);
-	const l = norm(axis);
-	if (l < GEOMETRY_LIMITS.zeroLengthMm) return issue(ctx, ['points', `${arm}.rear`], `coincides with ${arm}.front`);
-	if (crossLen(axis, sub(o, f)) / l < GEOMETRY_LIMITS.zeroLengthMm)
-		issue(ctx, ['points', `${arm}.outer`], `lies on the ${arm} arm pivot axis (zero-length arm)`);
+/** A pivot axis's two points apart, and the body's ball joint (if any) off the axis (mm). */
+function checkPivot(c: Base, ctx: Ctx, spec: KindSpec, axis: readonly [string, string], body: string): void {
+	const f = c.points[axis[0]];
+	const r = c.points[axis[1]];
+	const line = sub(r, f);
+	const l = norm(line);
+	if (l < GEOMETRY_LIMITS.zeroLengthMm) return issue(ctx, ['points', axis[1]], `coincides with ${axis[0]} (no pivot axis)`);
+	for (const j of spec.joints) {
+		if (j.type !== 'ball' || j.body !== body) continue;
+		const o = c.points[j.at];
+		if (crossLen(line, sub(o, f)) / l < GEOMETRY_LIMITS.zeroLengthMm)
+			issue(ctx, ['points', j.at], `lies on the ${body} arm pivot axis (zero-length arm)`);
+	}
 }
 
 /** Two points `a`, `b` must not coincide; the message names b. */
@@ -125,6 +113,20 @@ function apart(c: Base, ctx: Ctx, a: string, b: string, what: string): void {
 	const p = c.points[a];
 	const q = c.points[b];
 	if (p && q && norm(sub(p, q)) < GEOMETRY_LIMITS.zeroLengthMm) issue(ctx, ['points', b], `coincides with ${a} (${what})`);
+}
+
+/** Every joint of the kind: pivot axes, rods of non-zero length, the strut axis, ball joints apart. */
+function checkJoints(c: Base, ctx: Ctx, spec: KindSpec): void {
+	const balls: string[] = [];
+	for (const j of spec.joints) {
+		if (j.type === 'pivot') checkPivot(c, ctx, spec, j.axis, j.body);
+		else if (j.type === 'rod') apart(c, ctx, j.inner, j.outer, `zero-length ${j.link}`);
+		else if (j.type === 'slider') apart(c, ctx, j.top, j.lower, 'zero-length strut axis');
+		else if (j.type === 'ball') balls.push(j.at);
+	}
+	for (let i = 1; i < balls.length; i++) apart(c, ctx, balls[0], balls[i], 'zero-length upright');
+	const axis = spec.steeringAxis;
+	if (axis.type === 'points' && !balls.includes(axis.upper)) apart(c, ctx, axis.lower, axis.upper, 'zero-length steering axis');
 }
 
 /** Spin axis, side of the car and the design contact point on the ground. */
@@ -148,16 +150,37 @@ function checkWheel(c: Base, ctx: Ctx): void {
 		);
 }
 
-/** Spring ends: both or neither, apart, and a body that exists for this kind. */
-function checkSpring(c: Base, ctx: Ctx): void {
+/** Spring ends: both or neither, apart, and a body that exists for this kind (the rocker's spring has its own rules). */
+function checkSpring(c: Base, ctx: Ctx, spec: KindSpec): void {
 	const sc = c.points['spring.chassis'];
 	const sb = c.points['spring.body'];
+	if (c.rocker) return;
 	if (!sc && !sb) return;
 	if (!sc) return issue(ctx, ['points', 'spring.chassis'], 'missing (spring.body is given)');
 	if (!sb) return issue(ctx, ['points', 'spring.body'], 'missing (spring.chassis is given)');
 	apart(c, ctx, 'spring.chassis', 'spring.body', 'zero-length spring');
 	if (!c.spring_on) return issue(ctx, ['spring_on'], 'required when spring points are given');
-	if (c.kind === 'strut' && c.spring_on === 'upper') issue(ctx, ['spring_on'], "a strut has no upper arm: use 'lower' or 'upright'");
+	if (!spec.springOn.includes(c.spring_on))
+		issue(ctx, ['spring_on'], `a ${spec.label.toLowerCase()} has no body '${c.spring_on}': use ${spec.springOn.map((b) => `'${b}'`).join(' or ')}`);
+}
+
+/** The rocker block: allowed on this kind, a real pivot axis, rods and lever arms of non-zero length. */
+function checkRocker(c: Base, ctx: Ctx, spec: KindSpec): void {
+	const r = c.rocker;
+	if (!r) return;
+	if (!spec.rockerRodOn.length) return issue(ctx, ['rocker'], `a ${spec.label.toLowerCase()} takes no rocker`);
+	if (!spec.rockerRodOn.includes(r.rod_on))
+		return issue(ctx, ['rocker', 'rod_on'], `must be ${spec.rockerRodOn.map((b) => `'${b}'`).join(' or ')} on a ${spec.label.toLowerCase()}`);
+	const axis = sub(r.pivot_b, r.pivot_a);
+	const l = norm(axis);
+	if (l < GEOMETRY_LIMITS.zeroLengthMm) return issue(ctx, ['rocker', 'pivot_b'], 'coincides with pivot_a (degenerate rocker axis)');
+	if (crossLen(axis, sub(r.rod_end, r.pivot_a)) / l < GEOMETRY_LIMITS.zeroLengthMm)
+		return issue(ctx, ['rocker', 'rod_end'], 'lies on the rocker pivot axis (zero lever arm)');
+	if (norm(sub(r.rod_outer, r.rod_end)) < GEOMETRY_LIMITS.zeroLengthMm)
+		return issue(ctx, ['rocker', 'rod_outer'], 'coincides with rod_end (zero-length pushrod)');
+	const sc = c.points['spring.chassis'];
+	if (sc && norm(sub(sc, r.spring_end)) < GEOMETRY_LIMITS.zeroLengthMm)
+		issue(ctx, ['rocker', 'spring_end'], 'coincides with spring.chassis (zero-length spring)');
 }
 
 /** The vehicle block rules of the contract. */
@@ -171,17 +194,11 @@ function checkVehicle(c: Base, ctx: Ctx): void {
 function checkCorner(c: Base, ctx: Ctx): void {
 	checkVehicle(c, ctx);
 	if (!checkRequired(c, ctx)) return;
-	checkArm(c, ctx, 'lower');
-	if (c.kind === 'double_wishbone') {
-		checkArm(c, ctx, 'upper');
-		apart(c, ctx, 'lower.outer', 'upper.outer', 'zero-length upright');
-	} else {
-		apart(c, ctx, 'strut.top', 'strut.lower', 'zero-length strut axis');
-		apart(c, ctx, 'lower.outer', 'strut.top', 'zero-length steering axis');
-	}
-	apart(c, ctx, 'steer.inner', 'steer.outer', 'zero-length tie rod');
+	const spec = kindSpec(c.kind);
+	checkJoints(c, ctx, spec);
 	checkWheel(c, ctx);
-	checkSpring(c, ctx);
+	checkSpring(c, ctx, spec);
+	checkRocker(c, ctx, spec);
 }
 
 /** The `corner-geometry/1` schema: shape first, then the geometric rules. */

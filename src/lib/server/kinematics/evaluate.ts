@@ -3,7 +3,7 @@
 // few chosen measures, the points offset by given amounts, into a caller's Float64Array.
 
 import { DEG } from './constants';
-import { compileCorner, isFault, type CornerInput, type PointTuple } from './corner';
+import { compileCorner, flatPoints, isFault, type CornerInput, type PointTuple } from './corner';
 import * as F from './measures';
 import { OK } from './solve';
 import { gridCount, runSweep, SweepBuffer, type SweepSpec } from './sweep';
@@ -16,7 +16,9 @@ export const CURVE_MEASURES = {
 	kpi: { field: F.F_KPI, angle: true, unit: '°' },
 	rc_height: { field: F.F_RC, angle: false, unit: 'mm' },
 	half_track_change: { field: F.F_HALF_TRACK, angle: false, unit: 'mm' },
-	scrub_radius: { field: F.F_SCRUB, angle: false, unit: 'mm' }
+	scrub_radius: { field: F.F_SCRUB, angle: false, unit: 'mm' },
+	motion_ratio: { field: F.F_MOTION_RATIO, angle: false, unit: '' },
+	rocker_angle: { field: F.F_ROCKER_ANGLE, angle: true, unit: '°' }
 } as const;
 export type CurveMeasure = keyof typeof CURVE_MEASURES;
 export const CURVE_MEASURE_KEYS = Object.keys(CURVE_MEASURES) as CurveMeasure[];
@@ -59,8 +61,8 @@ export class CornerEvaluator {
 	) {
 		this.count = gridCount(grid.from, grid.to, grid.step);
 		this.spec = { sweep: F.SWEEP_HEAVE, from: grid.from, to: grid.to, step: grid.step, rack: 0, points: false };
-		this.base = clonePoints(corner.points);
-		this.work = clonePoints(corner.points);
+		this.base = clonePoints(flatPoints(corner));
+		this.work = clonePoints(flatPoints(corner));
 		this.input = { ...corner, points: this.work };
 		this.fields = measures.map((m) => CURVE_MEASURES[m].field);
 		this.scale = measures.map((m) => (CURVE_MEASURES[m].angle ? DEG : 1));

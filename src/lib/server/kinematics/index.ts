@@ -3,13 +3,12 @@
 // Public API of the kinematics engine: contract-shaped samples (`corner-solve/1`).
 
 import { DEG, MAX_SAMPLES } from './constants';
-import { compileCorner, isFault, SPRING_NONE, KIND_STRUT, type CornerInput, type CornerModel } from './corner';
+import { compileCorner, isFault, SPRING_NONE, type CornerInput, type CornerModel } from './corner';
 import * as F from './measures';
-import { FAIL_LINK } from './solve';
-import { gridCount, POINT_NAMES, runSweep, SweepBuffer, type SweepSpec } from './sweep';
+import { gridCount, runSweep, SweepBuffer, type SweepSpec } from './sweep';
 
-export type { CornerInput, PointTuple, VehicleInput } from './corner';
-export { POINT_NAMES } from './sweep';
+export type { CornerInput, PointTuple, RockerInput, VehicleInput } from './corner';
+export { flatPoints } from './corner';
 
 /** Sweep kinds of the contract. */
 export type SweepKind = 'heave' | 'roll' | 'steer';
@@ -32,8 +31,8 @@ export interface Sample {
 	rack?: number;
 	camber: number;
 	toe: number;
-	caster: number;
-	kpi: number;
+	caster: number | null;
+	kpi: number | null;
 	scrub_radius: number | null;
 	trail: number | null;
 	half_track_change: number;
@@ -46,6 +45,8 @@ export interface Sample {
 	anti_squat: number | null;
 	camber_ground: number | null;
 	motion_ratio: number | null;
+	/** the rocker's rotation from design (degrees, right-handed about pivot_a → pivot_b); null without a rocker */
+	rocker_angle: number | null;
 	wheel_centre: [number, number, number];
 	contact_patch: [number, number, number];
 	/** only with options.points: solved point positions (mm, chassis axes) */
@@ -101,6 +102,7 @@ export class CornerSolver {
 
 	/** Solve a sweep into this solver's buffer (no samples built, nothing allocated once warm); returns the buffer. */
 	run(options: SweepOptions): SweepBuffer {
+		if (options.sweep === 'steer' && !this.model.steers) throw new SweepOptionsError('sweep: this corner kind does not steer (no steer sweep)');
 		runSweep(this.model, specOf(options, this.spec), this.buffer);
 		return this.buffer;
 	}
@@ -119,7 +121,7 @@ export class CornerSolver {
 			buf.failCode = 5;
 			buf.failPosition = broken;
 		}
-		const error = buf.failCode === 0 ? null : errorOf(buf, options.sweep);
+		const error = buf.failCode === 0 ? null : errorOf(this.model, buf, options.sweep);
 		return { samples, error };
 	}
 
@@ -127,7 +129,7 @@ export class CornerSolver {
 	springInstalledLength(): number | null {
 		const m = this.model;
 		if (m.springOn === SPRING_NONE) return null;
-		const b = m.points['spring.body'];
+		const b = m.rocker ? m.points['rocker.spring_end'] : m.points['spring.body'];
 		const c = m.springChassis;
 		return Math.hypot(b[0] - c[0], b[1] - c[1], b[2] - c[2]);
 	}
@@ -197,7 +199,7 @@ function triple(buf: SweepBuffer, k: number, f: number): [number, number, number
 /** True when every number of row k that will be printed is finite. */
 function rowFinite(buf: SweepBuffer, k: number): boolean {
 	const o = k * F.N_FIELDS;
-	for (const f of [F.F_CAMBER, F.F_TOE, F.F_CASTER, F.F_KPI, F.F_HALF_TRACK, F.F_WHEELBASE, F.F_WC_X, F.F_WC_X + 1, F.F_WC_X + 2, F.F_CP_X, F.F_CP_X + 1, F.F_CP_X + 2]) {
+	for (const f of [F.F_CAMBER, F.F_TOE, F.F_HALF_TRACK, F.F_WHEELBASE, F.F_WC_X, F.F_WC_X + 1, F.F_WC_X + 2, F.F_CP_X, F.F_CP_X + 1, F.F_CP_X + 2]) {
 		if (!Number.isFinite(buf.values[o + f])) return false;
 	}
 	return true;
@@ -209,8 +211,8 @@ function sampleOf(m: CornerModel, buf: SweepBuffer, k: number, o: SweepOptions):
 		[SWEEP_VAR[o.sweep]]: buf.positions[k],
 		camber: deg(buf, k, F.F_CAMBER)!,
 		toe: deg(buf, k, F.F_TOE)!,
-		caster: deg(buf, k, F.F_CASTER)!,
-		kpi: deg(buf, k, F.F_KPI)!,
+		caster: deg(buf, k, F.F_CASTER),
+		kpi: deg(buf, k, F.F_KPI),
 		scrub_radius: val(buf, k, F.F_SCRUB),
 		trail: val(buf, k, F.F_TRAIL),
 		half_track_change: val(buf, k, F.F_HALF_TRACK)!,
@@ -223,6 +225,7 @@ function sampleOf(m: CornerModel, buf: SweepBuffer, k: number, o: SweepOptions):
 		anti_squat: val(buf, k, F.F_ANTI_SQUAT),
 		camber_ground: deg(buf, k, F.F_CAMBER_GROUND),
 		motion_ratio: val(buf, k, F.F_MOTION_RATIO),
+		rocker_angle: deg(buf, k, F.F_ROCKER_ANGLE),
 		wheel_centre: triple(buf, k, F.F_WC_X),
 		contact_patch: triple(buf, k, F.F_CP_X)
 	} as Sample;
@@ -233,24 +236,20 @@ function sampleOf(m: CornerModel, buf: SweepBuffer, k: number, o: SweepOptions):
 	return s;
 }
 
-/** The named points of row k that this corner has. */
+/** The named points of row k (the kind's, the spring's and the rocker's), in the model's order. */
 function pointsOf(m: CornerModel, buf: SweepBuffer, k: number): Record<string, [number, number, number]> {
 	const out: Record<string, [number, number, number]> = {};
-	const o = k * POINT_NAMES.length * 3;
-	POINT_NAMES.forEach((name, i) => {
-		const strutOnly = name.startsWith('strut.');
-		const wishboneOnly = name.startsWith('upper.');
-		if (m.kind === KIND_STRUT ? wishboneOnly : strutOnly) return;
-		if (name.startsWith('spring.') && m.springOn === SPRING_NONE) return;
-		const p = buf.points;
+	const o = k * buf.nPoints * 3;
+	const p = buf.points;
+	m.outPoints.forEach(({ name }, i) => {
 		out[name] = [p[o + 3 * i], p[o + 3 * i + 1], p[o + 3 * i + 2]];
 	});
 	return out;
 }
 
 /** The API error of a failed sweep. */
-function errorOf(buf: SweepBuffer, sweep: SweepKind): SweepError {
-	const link = FAIL_LINK[buf.failCode];
+function errorOf(m: CornerModel, buf: SweepBuffer, sweep: SweepKind): SweepError {
+	const link = m.failNames[buf.failCode] ?? 'linkage';
 	const unit = sweep === 'roll' ? '°' : ' mm';
 	const what = sweep === 'heave' ? 'travel' : SWEEP_VAR[sweep];
 	return {

@@ -3,7 +3,7 @@
 // Every measured quantity of the contract table, computed from a solved pose into a flat row.
 
 import { PARALLEL_TOL_RAD, TINY } from './constants';
-import { KIND_STRUT, SPRING_NONE, contactPoint, type CornerModel } from './corner';
+import { CHAIN_SLIDER, IC_MOTION, SPRING_NONE, contactPoint, type CornerModel } from './corner';
 import type { Pose } from './solve';
 import { vec3 } from './vec3';
 
@@ -29,8 +29,9 @@ export const F_MOTION_RATIO = 17;
 export const F_WC_X = 18;
 export const F_CP_X = 21;
 export const F_SPRING_LENGTH = 24;
+export const F_ROCKER_ANGLE = 25;
 /** Width of one measures row. */
-export const N_FIELDS = 25;
+export const N_FIELDS = 26;
 
 /** Sweep kinds as numbers. */
 export const SWEEP_HEAVE = 0;
@@ -89,14 +90,21 @@ export function computeMeasures(
 	const ay0 = Math.abs(p.a[1]);
 	out[o + F_TOE] = ay0 > 0 ? Math.atan(p.a[0] / ay0) : Math.atan2(p.a[0], ay0);
 	has[o + F_TOE] = 1; // finite by construction (bounded inverse trig, differences)
-	const ax = p.K[0] - p.L[0];
-	const ay = p.K[1] - p.L[1];
-	const azz = p.K[2] - p.L[2];
-	out[o + F_CASTER] = azz > 0 ? Math.atan(-ax / azz) : Math.atan2(-ax, azz);
-	has[o + F_CASTER] = 1; // finite by construction (bounded inverse trig, differences)
-	out[o + F_KPI] = azz > 0 ? Math.atan((-s * ay) / azz) : Math.atan2(-s * ay, azz);
-	has[o + F_KPI] = 1; // finite by construction (bounded inverse trig, differences)
-	groundPoint(p, ctx.n, out, has, o, s);
+	if (p.axisOk) {
+		const ax = p.AU[0] - p.AL[0];
+		const ay = p.AU[1] - p.AL[1];
+		const azz = p.AU[2] - p.AL[2];
+		out[o + F_CASTER] = azz > 0 ? Math.atan(-ax / azz) : Math.atan2(-ax, azz);
+		has[o + F_CASTER] = 1; // finite by construction (bounded inverse trig, differences)
+		out[o + F_KPI] = azz > 0 ? Math.atan((-s * ay) / azz) : Math.atan2(-s * ay, azz);
+		has[o + F_KPI] = 1; // finite by construction (bounded inverse trig, differences)
+		groundPoint(p, ctx.n, out, has, o, s);
+	} else {
+		none(out, has, o, F_CASTER);
+		none(out, has, o, F_KPI);
+		none(out, has, o, F_SCRUB);
+		none(out, has, o, F_TRAIL);
+	}
 	out[o + F_HALF_TRACK] = s * (C[1] - m.contact0[1]);
 	has[o + F_HALF_TRACK] = 1; // finite by construction (bounded inverse trig, differences)
 	out[o + F_WHEELBASE] = C[0] - m.contact0[0];
@@ -118,23 +126,27 @@ export function computeMeasures(
 		out[o + F_SPRING_LENGTH] = p.springLength;
 		mark(out, has, o + F_SPRING_LENGTH);
 	}
+	if (m.rocker) {
+		out[o + F_ROCKER_ANGLE] = p.rockerAngle;
+		mark(out, has, o + F_ROCKER_ANGLE);
+	} else none(out, has, o, F_ROCKER_ANGLE);
 	return true;
 }
 
 /** Scrub radius and trail from G, where the steering axis (L + t·axis) meets the ground. */
 function groundPoint(p: Pose, n: Float64Array, out: Float64Array, has: Uint8Array, o: number, s: number): void {
-	const ax = p.K[0] - p.L[0];
-	const ay = p.K[1] - p.L[1];
-	const az = p.K[2] - p.L[2];
+	const ax = p.AU[0] - p.AL[0];
+	const ay = p.AU[1] - p.AL[1];
+	const az = p.AU[2] - p.AL[2];
 	const den = n[0] * ax + n[1] * ay + n[2] * az;
 	if (Math.abs(den) < TINY) {
 		none(out, has, o, F_SCRUB);
 		none(out, has, o, F_TRAIL);
 		return;
 	}
-	const t = -(n[0] * p.L[0] + n[1] * p.L[1] + n[2] * p.L[2]) / den;
-	const gx = p.L[0] + t * ax;
-	const gy = p.L[1] + t * ay;
+	const t = -(n[0] * p.AL[0] + n[1] * p.AL[1] + n[2] * p.AL[2]) / den;
+	const gx = p.AL[0] + t * ax;
+	const gy = p.AL[1] + t * ay;
 	out[o + F_SCRUB] = s * (C[1] - gy);
 	mark(out, has, o + F_SCRUB);
 	out[o + F_TRAIL] = gx - C[0];
@@ -198,16 +210,27 @@ function meet(): boolean {
 /** Fill the lines of both arms (or arm and strut) for one view at the wheel-centre plane. */
 function viewLines(m: CornerModel, p: Pose, view: number): void {
 	cutPlane(p, view, 0, 0);
-	if (m.kind === KIND_STRUT) strutLine(m, p, view, 3);
+	if (m.chain === CHAIN_SLIDER) strutLine(m, p, view, 3);
 	else cutPlane(p, view, 4, 3);
 }
 
 /** fvic, fvsa, rc_height, svic, anti-dive and anti-squat. */
 function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float64Array, has: Uint8Array, o: number): void {
+	if (m.icMode === IC_MOTION) return motionCentres(m, p, ctx, out, has, o);
 	armPlane(m.lower.e, m.lower.pivot, p.L, 0);
-	if (m.kind !== KIND_STRUT) armPlane(m.upper.e, m.upper.pivot, p.K, 4);
+	if (m.chain !== CHAIN_SLIDER) armPlane(m.upper.e, m.upper.pivot, p.K, 4);
 	viewLines(m, p, 0);
 	const fv = meet();
+	frontView(fv, out, has, o);
+	if (ctx.sweep === SWEEP_HEAVE) rollCentre(fv, out, has, o);
+	else none(out, has, o, F_RC);
+	viewLines(m, p, 1);
+	sideView(meet(), out, has, o);
+	anti(m, p, has[o + F_SVIC_X] === 1, out, has, o);
+}
+
+/** Write fvic and fvsa from `hit` (or null them). */
+function frontView(fv: boolean, out: Float64Array, has: Uint8Array, o: number): void {
 	if (fv) {
 		out[o + F_FVIC_Y] = hit[0];
 		mark(out, has, o + F_FVIC_Y);
@@ -220,10 +243,10 @@ function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float
 		none(out, has, o, F_FVIC_Z);
 		none(out, has, o, F_FVSA);
 	}
-	if (ctx.sweep === SWEEP_HEAVE) rollCentre(fv, out, has, o);
-	else none(out, has, o, F_RC);
-	viewLines(m, p, 1);
-	const sv = meet();
+}
+
+/** Write svic from `hit` (or null it). */
+function sideView(sv: boolean, out: Float64Array, has: Uint8Array, o: number): void {
 	if (sv) {
 		out[o + F_SVIC_X] = hit[0];
 		mark(out, has, o + F_SVIC_X);
@@ -233,7 +256,61 @@ function instantCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float
 		none(out, has, o, F_SVIC_X);
 		none(out, has, o, F_SVIC_Z);
 	}
+}
+
+/** Below this |ω| per mm of heave (rad/mm) an instant centre is at infinity (contract). */
+const OMEGA_MIN = 1e-9;
+
+/**
+ * Instant centres from the motion (contract, "More kinds"): with ω and the wheel centre's velocity v
+ * per mm of heave, the point of the plane x = W_x that moves only along x is
+ * [W_y − v_z/ω_x, W_z + v_y/ω_x]; of the plane y = W_y, [W_x + v_z/ω_y, W_z − v_x/ω_y].
+ */
+function motionCentres(m: CornerModel, p: Pose, ctx: MeasureContext, out: Float64Array, has: Uint8Array, o: number): void {
+	const h = p.dW[2];
+	if (!p.velocityOk || Math.abs(h) < TINY) {
+		frontView(false, out, has, o);
+		none(out, has, o, F_RC);
+		sideView(false, out, has, o);
+		return anti(m, p, false, out, has, o);
+	}
+	const wx = p.omega[0] / h;
+	const wy = p.omega[1] / h;
+	const vx = p.dW[0] / h;
+	const vy = p.dW[1] / h;
+	const fv = Math.abs(wx) >= OMEGA_MIN;
+	if (fv) {
+		hit[0] = p.W[1] - 1 / wx;
+		hit[1] = p.W[2] + vy / wx;
+	}
+	frontView(fv, out, has, o);
+	if (ctx.sweep === SWEEP_HEAVE) motionRollCentre(p, fv, h, out, has, o);
+	else none(out, has, o, F_RC);
+	const sv = Math.abs(wy) >= OMEGA_MIN;
+	if (sv) {
+		hit[0] = p.W[0] + 1 / wy;
+		hit[1] = p.W[2] - vx / wy;
+	}
+	sideView(sv, out, has, o);
 	anti(m, p, sv, out, has, o);
+}
+
+/** rc_height of the motion kinds: through fvic, or (fvic null) perpendicular to C's velocity in the front view. */
+function motionRollCentre(p: Pose, fv: boolean, h: number, out: Float64Array, has: Uint8Array, o: number): void {
+	if (fv) return rollCentre(true, out, has, o);
+	// velocity of the upright point at C: dL + ω × (C − L), per unit of the chain's driver
+	const w = p.omega;
+	const x = C[0] - p.L[0];
+	const y = C[1] - p.L[1];
+	const z = C[2] - p.L[2];
+	const cy = (p.dL[1] + w[2] * x - w[0] * z) / h;
+	const cz = (p.dL[2] + w[0] * y - w[1] * x) / h;
+	// the line from C with direction (cz, −cy) ⊥ (cy, cz)
+	const dy = cz;
+	const dz = -cy;
+	if (Math.abs(dy) < TINY) return none(out, has, o, F_RC);
+	out[o + F_RC] = C[2] + (dz * (0 - C[1])) / dy;
+	mark(out, has, o + F_RC);
 }
 
 /** Height where the line from C through fvic (or parallel to the arm lines) crosses y = 0. */

@@ -2,13 +2,13 @@
 // Sensitivity: the derivative of each measure with respect to each point coordinate, by central
 // differences of the whole heave sweep, ranked so the engineer sees which points matter.
 
-import type { CornerInput } from './corner';
-import { POINT_NAMES } from './sweep';
+import { ALL_POINT_NAMES } from '../../kinds';
+import { flatPoints, type CornerInput } from './corner';
 import { AXES, CornerEvaluator, toChange, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 
-/** Points whose placement a fabricator sets (chassis brackets and upright joints): the solver's points, less the
- * wheel's spin axis and the spring ends, in the solver's order. */
-export const LINKAGE_POINTS = POINT_NAMES.slice(0, POINT_NAMES.indexOf('wheel.centre'));
+/** Points whose placement a fabricator sets (chassis brackets, upright joints, the rocker's): every kind's points,
+ * less the wheel's spin axis and the spring ends, in the kinds' order. */
+export const LINKAGE_POINTS = ALL_POINT_NAMES.filter((p) => !p.startsWith('wheel.') && !p.startsWith('spring.'));
 
 /** Scalar figures ranked: change over the range (value at `to` minus value at `from`) or the design value. */
 export const SCALAR_MEASURES = {
@@ -27,7 +27,8 @@ export const SENSITIVITY_STEP_MM = 0.01;
 /** Every coordinate (x, y, z) of the linkage points this corner has. */
 export function linkageCoordinates(corner: CornerInput): Coordinate[] {
 	const out: Coordinate[] = [];
-	for (const p of LINKAGE_POINTS) if (corner.points[p]) for (const axis of [0, 1, 2] as const) out.push({ point: p, axis });
+	const points = flatPoints(corner);
+	for (const p of LINKAGE_POINTS) if (points[p]) for (const axis of [0, 1, 2] as const) out.push({ point: p, axis });
 	return out;
 }
 

@@ -1,15 +1,22 @@
 // Frame: ISO 8855 vehicle axes, x forward, y left, z up; lengths in mm, angles in radians.
-// Position solution of one corner as a closed-form chain in the lower-arm angle θ:
-// lower ball joint on its circle → second steering-axis point (upper ball joint on
-// circle ∩ sphere, or the strut top found on the strut axis) → upright turned about the
-// steering axis until the tie rod fits. A sweep's driving condition is then one equation
-// in θ, solved by Newton's method with the analytic derivative from a velocity analysis.
+// Position solution of one corner. The closed-form chains run in the driving arm's angle θ:
+// arms: ball joint on its circle → second ball joint on circle ∩ sphere → upright turned about
+// the steering axis until the closing rod fits; slider: the strut's point at the top mount
+// instead of the second ball joint; revolute: the upright turns with the arm. A sweep's driving
+// condition is then one equation in θ, solved by Newton's method with the analytic derivative
+// from a velocity analysis. The rods chain (five-link) is solved in rods.ts. The rocker, on any
+// chain, follows in closed form (rocker.ts).
 
 import { ASSEMBLY_SLACK, DIAGNOSE_STEP_RAD, DIAGNOSE_STEPS, DRIVER_SLOPE_MIN, LINEAR_FINISH_MM, NEWTON_MAX_ITER, TINY } from './constants';
 import {
-	KIND_STRUT,
+	AXIS_NONE,
+	AXIS_VIRTUAL,
+	CHAIN_REVOLUTE,
+	CHAIN_RODS,
+	CHAIN_SLIDER,
 	SPRING_LOWER,
 	SPRING_NONE,
+	SPRING_ROCKER,
 	SPRING_UPPER,
 	SPRING_UPRIGHT,
 	contactPoint,
@@ -17,6 +24,8 @@ import {
 	type CornerModel
 } from './corner';
 import { axisCosSin, mat3, minimalRotation, mul, place, rotate } from './pose';
+import { placeRocker, rockerVelocity } from './rocker';
+import { solveRods, virtualAxis } from './rods';
 import { cross, vec3 } from './vec3';
 
 /** Result codes of a pose evaluation (0 = assembled). */
@@ -26,9 +35,9 @@ export const FAIL_TIE_ROD = 2;
 export const FAIL_STRUT = 3;
 export const FAIL_LOWER = 4;
 export const FAIL_CONTACT = 5;
-
-/** The link each failure code names in error messages. */
-export const FAIL_LINK = ['', 'upper arm', 'tie rod', 'strut', 'lower arm', 'wheel'];
+export const FAIL_ROCKER = 6;
+/** The rods chain's rod i fails with code FAIL_ROD0 + i; the model's failNames name every code. */
+export const FAIL_ROD0 = 7;
 
 /** Branch values of an assembled pose: the continuation carries them from one position to the next. */
 export class Branch {
@@ -42,6 +51,28 @@ export class Branch {
 	psiS = 0;
 	/** strut: distance along the strut axis from strut.lower to the point at the top mount, mm */
 	tau = 0;
+	/** cosine and sine of the rocker's angle from design */
+	rockerC = 1;
+	rockerS = 0;
+	/** rods chain: the upright's origin offset from design (mm) and its rotation from design, row-major */
+	readonly q = new Float64Array(12);
+
+	constructor() {
+		this.q[3] = this.q[7] = this.q[11] = 1;
+	}
+}
+
+/** Copy branch b into a. */
+export function setBranch(a: Branch, b: Branch): void {
+	a.theta = b.theta;
+	a.phiC = b.phiC;
+	a.phiS = b.phiS;
+	a.psiC = b.psiC;
+	a.psiS = b.psiS;
+	a.tau = b.tau;
+	a.rockerC = b.rockerC;
+	a.rockerS = b.rockerS;
+	a.q.set(b.q);
 }
 
 /** A solved pose and its velocity per unit θ: scratch buffers, reused for every position. */
@@ -77,6 +108,23 @@ export class Pose {
 	readonly dd = vec3();
 	dPhi = 0;
 	dSpringLength = 0;
+	/** steering-axis ends used by the measures (lower, upper); axisOk false when the kind has none or it is undefined here */
+	readonly AL = vec3();
+	readonly AU = vec3();
+	axisOk = false;
+	/** rocker: rod outer end, rod end and spring end (mm), the angle from design (rad) and its rate per unit θ */
+	readonly rodOuter = vec3();
+	readonly dRodOuter = vec3();
+	readonly rodEnd = vec3();
+	readonly springEnd = vec3();
+	rockerAngle = 0;
+	dRocker = 0;
+	/** rods chain: the predicted start of Newton (origin and rotation, as Branch.q) */
+	readonly guessQ = new Float64Array(12);
+	/** the same pose evaluated exactly after the linear finish (for the point list), or null: read this one */
+	exact: Pose | null = null;
+	/** rods chain: the rods' outer ends at this pose (5 × 3, mm) */
+	readonly rodOut = new Float64Array(15);
 	/** false at a toggle position where the velocity analysis is singular */
 	velocityOk = false;
 	/** the link at the toggle when velocityOk is false (FAIL_* code) */
@@ -98,12 +146,13 @@ const uhat = vec3();
 const rMin = mat3();
 const rPsi = mat3();
 const tMin = vec3();
-const root = new Float64Array(2);
-const rootIn = new Float64Array(5);
+/** circleRoot's input [A, B, C, pc, ps] and output [cos x, sin x] (scratch, shared with rocker.ts). */
+export const root = new Float64Array(2);
+export const rootIn = new Float64Array(5);
 const csPhi = new Float64Array(2);
 
 /** out = the arm point on circle `arm` at the angle whose [cosine, sine] are cs[0], cs[1]. */
-function onCircle(out: Float64Array, arm: ArmCircle, cs: Float64Array): void {
+export function onCircle(out: Float64Array, arm: ArmCircle, cs: Float64Array): void {
 	const c = cs[0];
 	const s = cs[1];
 	out[0] = arm.c[0] + c * arm.r[0] + s * arm.s[0];
@@ -116,7 +165,7 @@ function onCircle(out: Float64Array, arm: ArmCircle, cs: Float64Array): void {
  * (cos, sin) is nearest (pc, ps); reads rootIn = [A, B, C, pc, ps] (scratch, so no number is
  * boxed on the call), writes root = [cos x, sin x]. False when no root exists (link cannot reach).
  */
-function circleRoot(): boolean {
+export function circleRoot(): boolean {
 	const A = rootIn[0];
 	const B = rootIn[1];
 	const C = rootIn[2];
@@ -235,6 +284,7 @@ export function assemble(m: CornerModel, ref: Branch, theta: number, rack: numbe
 
 /** As `assemble`, with θ (rad) and rack (mm) already in p.branch.theta and p.rack (hot path). */
 export function evalPose(m: CornerModel, ref: Branch, p: Pose): number {
+	if (m.chain === CHAIN_REVOLUTE) return evalRevolute(m, ref, p);
 	const theta = p.branch.theta;
 	const rack = p.rack;
 	p.csTheta[0] = Math.cos(theta);
@@ -243,7 +293,7 @@ export function evalPose(m: CornerModel, ref: Branch, p: Pose): number {
 	p.S[0] = m.steerInner0[0];
 	p.S[1] = m.steerInner0[1] + rack;
 	p.S[2] = m.steerInner0[2];
-	const strut = m.kind === KIND_STRUT;
+	const strut = m.chain === CHAIN_SLIDER;
 	const code = strut ? placeStrut(m, ref, p) : placeUpper(m, ref, p);
 	if (code !== OK) return code;
 	if (!strut) {
@@ -265,7 +315,60 @@ export function evalPose(m: CornerModel, ref: Branch, p: Pose): number {
 	if (tie !== OK) return tie;
 	placeBodies(m, p);
 	velocity(m, p);
+	return finishPose(m, ref, p);
+}
+
+/** The revolute chain: the upright turns with the arm about its pivot axis by θ (origin on the axis). */
+function evalRevolute(m: CornerModel, ref: Branch, p: Pose): number {
+	const theta = p.branch.theta;
+	p.csTheta[0] = Math.cos(theta);
+	p.csTheta[1] = Math.sin(theta);
+	const lo = m.lower;
+	p.L[0] = m.L0[0];
+	p.L[1] = m.L0[1];
+	p.L[2] = m.L0[2];
+	axisCosSin(p.R, lo.e, p.csTheta);
+	p.S[0] = p.S[1] = p.S[2] = 0;
+	placeBodies(m, p);
+	p.dL[0] = p.dL[1] = p.dL[2] = 0;
+	p.omega[0] = lo.e[0];
+	p.omega[1] = lo.e[1];
+	p.omega[2] = lo.e[2];
+	bodyVelocity(p, p.W, p.dW);
+	cross(p.da, p.omega, p.a);
+	springVelocity(m, p);
+	p.velocityOk = true;
+	return finishPose(m, ref, p);
+}
+
+/** After any chain: the rocker (and the spring it works), then the steering-axis ends. */
+export function finishPose(m: CornerModel, ref: Branch, p: Pose): number {
+	if (m.rocker) {
+		if (!placeRocker(m, ref, p)) return FAIL_ROCKER;
+		if (p.velocityOk && !rockerVelocity(m, p)) {
+			p.velocityOk = false;
+			p.velocityFail = FAIL_ROCKER;
+		}
+	}
+	steeringAxis(m, p);
 	return OK;
+}
+
+/** The steering axis ends AL, AU of the measures: the chain's two axis points, the virtual axis, or none. */
+function steeringAxis(m: CornerModel, p: Pose): void {
+	if (m.axis === AXIS_NONE) {
+		p.axisOk = false;
+		return;
+	}
+	if (m.axis === AXIS_VIRTUAL) {
+		p.axisOk = virtualAxis(m, p);
+		return;
+	}
+	p.axisOk = true;
+	for (let i = 0; i < 3; i++) {
+		p.AL[i] = p.L[i];
+		p.AU[i] = p.K[i];
+	}
 }
 
 /** Upright and spring points from the solved rotation. */
@@ -273,11 +376,11 @@ function placeBodies(m: CornerModel, p: Pose): void {
 	place(p.T, p.R, m.bodyT, p.L);
 	place(p.W, p.R, m.bodyW, p.L);
 	rotate(p.a, p.R, m.spinAxis0);
-	if (m.kind === KIND_STRUT) {
+	if (m.chain === CHAIN_SLIDER) {
 		place(p.SL, p.R, m.bodySL, p.L);
 		rotate(p.d, p.R, m.strutAxis0);
 	}
-	if (m.springOn === SPRING_NONE) return;
+	if (m.springOn === SPRING_NONE || m.springOn === SPRING_ROCKER) return;
 	if (m.springOn === SPRING_UPRIGHT) place(p.B, p.R, m.bodySpring, p.L);
 	else if (m.springOn === SPRING_LOWER) onCircle(p.B, m.springBody, p.csTheta);
 	else {
@@ -297,11 +400,11 @@ function placeBodies(m: CornerModel, p: Pose): void {
  */
 function velocity(m: CornerModel, p: Pose): void {
 	p.velocityOk = false;
-	p.velocityFail = m.kind === KIND_STRUT ? FAIL_STRUT : FAIL_UPPER;
+	p.velocityFail = m.chain === CHAIN_SLIDER ? FAIL_STRUT : FAIL_UPPER;
 	const lo = m.lower;
 	cross(p.dL, lo.e, sub3(tmpA, p.L, lo.c));
 	const w = tmpB; // velocity of the steering-axis point K relative to L
-	if (m.kind === KIND_STRUT) {
+	if (m.chain === CHAIN_SLIDER) {
 		// the upright point at the top mount slides along the strut axis: σ d − dL ⊥ (K − L)
 		sub3(tmpC, p.K, p.L);
 		const dv = (p.d[0] * tmpC[0] + p.d[1] * tmpC[1] + p.d[2] * tmpC[2]);
@@ -325,17 +428,13 @@ function velocity(m: CornerModel, p: Pose): void {
 	if (!turnAboutAxis(p, w)) return;
 	bodyVelocity(p, p.W, p.dW);
 	cross(p.da, p.omega, p.a);
-	if (m.kind === KIND_STRUT) cross(p.dd, p.omega, p.d);
-	if (p.allPoints) {
-		bodyVelocity(p, p.T, p.dT);
-		if (m.kind === KIND_STRUT) bodyVelocity(p, p.SL, p.dSL);
-	}
+	if (m.chain === CHAIN_SLIDER) cross(p.dd, p.omega, p.d);
 	springVelocity(m, p);
 	p.velocityOk = true;
 }
 
 /** out = velocity of upright point q: dL + ω × (q − L). */
-function bodyVelocity(p: Pose, q: Float64Array, out: Float64Array): void {
+export function bodyVelocity(p: Pose, q: Float64Array, out: Float64Array): void {
 	const x = q[0] - p.L[0];
 	const y = q[1] - p.L[1];
 	const z = q[2] - p.L[2];
@@ -367,8 +466,8 @@ function turnAboutAxis(p: Pose, w: Float64Array): boolean {
 }
 
 /** Rate of change of the spring length per unit θ (mm/rad). */
-function springVelocity(m: CornerModel, p: Pose): void {
-	if (m.springOn === SPRING_NONE) return;
+export function springVelocity(m: CornerModel, p: Pose): void {
+	if (m.springOn === SPRING_NONE || m.springOn === SPRING_ROCKER) return;
 	if (m.springOn === SPRING_UPRIGHT) {
 		bodyVelocity(p, p.B, p.dB);
 	} else {
@@ -382,7 +481,7 @@ function springVelocity(m: CornerModel, p: Pose): void {
 }
 
 /** out = a − b (local copy to keep this file's hot path self-contained). */
-function sub3(out: Float64Array, a: Float64Array, b: Float64Array): Float64Array {
+export function sub3(out: Float64Array, a: Float64Array, b: Float64Array): Float64Array {
 	out[0] = a[0] - b[0];
 	out[1] = a[1] - b[1];
 	out[2] = a[2] - b[2];
@@ -400,7 +499,7 @@ export interface Driver {
 }
 
 /** f(θ) and f'(θ) of the driver at pose p; writes residual[0], residual[1]. */
-function driverResidual(m: CornerModel, d: Driver, p: Pose, out: Float64Array): boolean {
+export function driverResidual(m: CornerModel, d: Driver, p: Pose, out: Float64Array): boolean {
 	if (d.mode === 0) {
 		out[0] = p.W[2] - d.targetZ;
 		out[1] = p.dW[2];
@@ -425,6 +524,8 @@ const residual = new Float64Array(2);
  * well-predicted position costs one evaluation. Returns OK or the FAIL code of the link.
  */
 export function solvePosition(m: CornerModel, ref: Branch, d: Driver, p: Pose): number {
+	p.exact = null;
+	if (m.chain === CHAIN_RODS) return solveRods(m, ref, d, p);
 	let theta = p.guess;
 	let good = ref.theta;
 	let lastFail = FAIL_LOWER;
@@ -474,26 +575,40 @@ function diagnose(m: CornerModel, ref: Branch, d: Driver, p: Pose, fallback: num
 
 /**
  * Move pose p by p.step (rad of θ) along its velocity: the final Newton step, to first order.
- * Only what the measures read is moved unless p.allPoints (the per-sample point list) is set.
+ * When every point is wanted (the per-sample point list) the pose is evaluated anew instead, so
+ * each point is exact; otherwise only what the measures read is moved.
  */
 function advance(m: CornerModel, p: Pose): void {
 	const h = p.step;
 	p.branch.theta += h;
+	p.exact = null;
+	if (p.allPoints) {
+		// the branch values just found are the nearest reference for the re-evaluation
+		setBranch(exactRef, p.branch);
+		exactPose.branch.theta = p.branch.theta;
+		exactPose.rack = p.rack;
+		if (evalPose(m, exactRef, exactPose) === OK) p.exact = exactPose;
+	}
 	nudge(p.L, p.dL, p);
 	nudge(p.K, p.dK, p);
 	nudge(p.W, p.dW, p);
 	nudge(p.a, p.da, p);
 	renormalize(p.a);
 	p.springLength += h * p.dSpringLength;
-	if (m.kind === KIND_STRUT) {
+	p.rockerAngle += h * p.dRocker;
+	if (m.chain === CHAIN_SLIDER) {
 		nudge(p.d, p.dd, p);
 		renormalize(p.d);
 	}
-	if (!p.allPoints) return;
-	nudge(p.T, p.dT, p);
-	nudge(p.B, p.dB, p);
-	if (m.kind === KIND_STRUT) nudge(p.SL, p.dSL, p);
+	if (m.axis === AXIS_VIRTUAL) return;
+	for (let i = 0; i < 3; i++) {
+		p.AL[i] = p.L[i];
+		p.AU[i] = p.K[i];
+	}
 }
+
+const exactRef = new Branch();
+const exactPose = new Pose();
 
 /** v += p.step · dv (mm, or unitless for directions); the step is read from p so no number is boxed. */
 function nudge(v: Float64Array, dv: Float64Array, p: Pose): void {

@@ -4,30 +4,11 @@
 // solution follows one assembly branch; each solved position is written into flat buffers.
 
 import { GRID_DECIMALS, GRID_TOL, MAX_SAMPLES, MAX_STEP_MM, MAX_STEP_ROLL_RAD, RAD } from './constants';
-import { KIND_STRUT, SPRING_NONE, type CornerModel } from './corner';
+import { B_CHASSIS, B_LOWER, B_RACK, B_ROCKER, B_UPPER, CHAIN_RODS, type CornerModel } from './corner';
 import { computeMeasures, N_FIELDS, SWEEP_HEAVE, SWEEP_ROLL, SWEEP_STEER, type MeasureContext } from './measures';
-import { place } from './pose';
-import { Branch, FAIL_CONTACT, OK, Pose, solvePosition, type Driver } from './solve';
+import { axisCosSin, mat3, rotate } from './pose';
+import { Branch, FAIL_CONTACT, OK, Pose, setBranch, solvePosition, type Driver } from './solve';
 import { vec3 } from './vec3';
-
-/** Names of the points a sample may carry, in this order (3 numbers each in the points buffer). */
-export const POINT_NAMES = [
-	'lower.front',
-	'lower.rear',
-	'lower.outer',
-	'upper.front',
-	'upper.rear',
-	'upper.outer',
-	'strut.top',
-	'strut.lower',
-	'steer.inner',
-	'steer.outer',
-	'wheel.centre',
-	'wheel.axis_inner',
-	'spring.chassis',
-	'spring.body'
-] as const;
-const N_POINTS = POINT_NAMES.length;
 
 /** A sweep request: kind (SWEEP_*), grid (mm or degrees), rack held (mm; heave and roll). */
 export interface SweepSpec {
@@ -51,14 +32,18 @@ export class SweepBuffer {
 	failCode = OK;
 	failPosition = 0;
 
-	/** Make room for n rows (grows only, so a reused buffer allocates nothing). */
-	reserve(n: number, points: boolean): void {
+	/** points per row in `points` (the model's point list) */
+	nPoints = 0;
+
+	/** Make room for n rows of nPoints points each (grows only, so a reused buffer allocates nothing). */
+	reserve(n: number, points: boolean, nPoints: number): void {
 		if (this.positions.length < n) {
 			this.positions = new Float64Array(n);
 			this.values = new Float64Array(n * N_FIELDS);
 			this.has = new Uint8Array(n * N_FIELDS);
 		}
-		if (points && this.points.length < n * N_POINTS * 3) this.points = new Float64Array(n * N_POINTS * 3);
+		this.nPoints = nPoints;
+		if (points && this.points.length < n * nPoints * 3) this.points = new Float64Array(n * nPoints * 3);
 	}
 }
 
@@ -93,13 +78,17 @@ class Walker {
 	prev3P = 0;
 	prev3Theta = 0;
 	nHist = 0;
+	/** rods chain: the last two solved poses (Branch.q) */
+	readonly prevQ = new Float64Array(12);
+	readonly prev2Q = new Float64Array(12);
 }
 
 const walker = new Walker();
 const DESIGN = new Branch();
 
 /** Set w.pose.guess: θ (rad) at w.at extrapolated from the last one to three solutions. */
-function predict(w: Walker): void {
+function predict(m: CornerModel, w: Walker): void {
+	if (m.chain === CHAIN_RODS) return predictPose(w);
 	const x = w.at;
 	const p1 = w.prevP;
 	const p2 = w.prev2P;
@@ -120,14 +109,15 @@ function predict(w: Walker): void {
 	}
 }
 
-/** Copy branch b into a. */
-function setBranch(a: Branch, b: Branch): void {
-	a.theta = b.theta;
-	a.phiC = b.phiC;
-	a.phiS = b.phiS;
-	a.psiC = b.psiC;
-	a.psiS = b.psiS;
-	a.tau = b.tau;
+/** Rods chain: w.pose.guessQ extrapolated linearly from the last two solved poses (Newton re-orthonormalises). */
+function predictPose(w: Walker): void {
+	const g = w.pose.guessQ;
+	if (w.nHist < 2 || w.prevP === w.prev2P) {
+		g.set(w.ref.q);
+		return;
+	}
+	const t = (w.at - w.prevP) / (w.prevP - w.prev2P);
+	for (let i = 0; i < 12; i++) g[i] = w.prevQ[i] + t * (w.prevQ[i] - w.prev2Q[i]);
 }
 
 /** Set the driver, context and rack (w.pose.rack) for w.sweep at position w.at (mm or degrees). */
@@ -156,10 +146,12 @@ function drive(m: CornerModel, w: Walker): void {
 /** Solve the position w.at from the walker's state; on success the state moves there. */
 function step(m: CornerModel, w: Walker): number {
 	drive(m, w);
-	predict(w);
+	predict(m, w);
 	const code = solvePosition(m, w.ref, w.driver, w.pose);
 	if (code !== OK) return code;
 	setBranch(w.ref, w.pose.branch);
+	w.prev2Q.set(w.prevQ);
+	w.prevQ.set(w.pose.branch.q);
 	w.prev3P = w.prev2P;
 	w.prev3Theta = w.prev2Theta;
 	w.prev2P = w.prevP;
@@ -188,6 +180,7 @@ function travelTo(m: CornerModel, w: Walker): number {
 /** Reset the walker to the start state at position 0; `exact` when that state satisfies the driver. */
 function restart(w: Walker, exact: boolean): void {
 	setBranch(w.ref, w.start);
+	w.prevQ.set(w.start.q);
 	w.nHist = exact ? 1 : 0;
 	w.at = 0;
 	w.prevP = 0;
@@ -198,6 +191,7 @@ function restart(w: Walker, exact: boolean): void {
 function approachRack(m: CornerModel, w: Walker, rack: number): number {
 	setBranch(w.ref, DESIGN);
 	w.ref.tau = m.strutTau0;
+	w.prevQ.set(DESIGN.q);
 	w.nHist = 1;
 	w.prevP = 0;
 	w.prevTheta = 0;
@@ -209,28 +203,53 @@ function approachRack(m: CornerModel, w: Walker, rack: number): number {
 	return code;
 }
 
-/** Write the solved pose's points into row `row` of buf.points. */
-function writePoints(m: CornerModel, p: Pose, buf: SweepBuffer, row: number): void {
-	const o = row * N_POINTS * 3;
+const armR = mat3();
+const armCS = new Float64Array(2);
+const tmpP = vec3();
+
+/** out = `design` turned about the axis of `arm` (through arm.pivot) by the angle [armCS]. */
+function onArm(out: Float64Array, arm: CornerModel['lower'], design: Float64Array): void {
+	axisCosSin(armR, arm.e, armCS);
+	for (let i = 0; i < 3; i++) tmpP[i] = design[i] - arm.pivot[i];
+	rotate(out, armR, tmpP);
+	for (let i = 0; i < 3; i++) out[i] += arm.pivot[i];
+}
+
+const onePoint = vec3();
+
+/** Write the solved pose's points into row `row` of buf.points: each point moved with its body. */
+function writePoints(m: CornerModel, solved: Pose, buf: SweepBuffer, row: number): void {
+	const p = solved.exact ?? solved;
+	const o = row * buf.nPoints * 3;
 	const pts = buf.points;
-	const set = (k: number, v: ArrayLike<number>): void => {
-		pts[o + 3 * k] = v[0];
-		pts[o + 3 * k + 1] = v[1];
-		pts[o + 3 * k + 2] = v[2];
-	};
-	const given = (k: number): void => set(k, m.points[POINT_NAMES[k]] ?? [0, 0, 0]);
-	for (const k of [0, 1, 3, 4, 12]) given(k);
-	set(2, p.L);
-	if (m.kind === KIND_STRUT) {
-		set(6, p.K);
-		set(7, p.SL);
-	} else set(5, p.K);
-	set(8, p.S);
-	set(9, p.T);
-	set(10, p.W);
-	const l = m.spinAxisLength;
-	set(11, [p.W[0] - l * p.a[0], p.W[1] - l * p.a[1], p.W[2] - l * p.a[2]]);
-	if (m.springOn !== SPRING_NONE) set(13, p.B);
+	for (let k = 0; k < m.outPoints.length; k++) {
+		const { body, design } = m.outPoints[k];
+		const q = onePoint;
+		if (body === B_CHASSIS) q.set(design);
+		else if (body === B_RACK) {
+			q.set(design);
+			q[1] += p.rack;
+		} else if (body === B_LOWER) {
+			armCS[0] = p.csTheta[0];
+			armCS[1] = p.csTheta[1];
+			onArm(q, m.lower, design);
+		} else if (body === B_UPPER) {
+			armCS[0] = p.branch.phiC;
+			armCS[1] = p.branch.phiS;
+			onArm(q, m.upper, design);
+		} else if (body === B_ROCKER) {
+			armCS[0] = p.branch.rockerC;
+			armCS[1] = p.branch.rockerS;
+			onArm(q, m.rocker!.rodEnd, design);
+		} else {
+			for (let i = 0; i < 3; i++) tmpP[i] = design[i] - m.L0[i];
+			rotate(q, p.R, tmpP);
+			for (let i = 0; i < 3; i++) q[i] += p.L[i];
+		}
+		pts[o + 3 * k] = q[0];
+		pts[o + 3 * k + 1] = q[1];
+		pts[o + 3 * k + 2] = q[2];
+	}
 }
 
 /** Solve and record grid row k from the walker's position; false (failure recorded) when it cannot be assembled. */
@@ -254,7 +273,7 @@ function solveRow(m: CornerModel, spec: SweepSpec, buf: SweepBuffer, k: number):
 /** Run sweep `spec` on model m into buf (reused between calls; allocates nothing once sized). */
 export function runSweep(m: CornerModel, spec: SweepSpec, buf: SweepBuffer): void {
 	const n = Math.min(gridCount(spec.from, spec.to, spec.step), MAX_SAMPLES);
-	buf.reserve(n, spec.points);
+	buf.reserve(n, spec.points, m.outPoints.length);
 	buf.count = n;
 	buf.failCode = OK;
 	buf.failPosition = 0;

@@ -1,0 +1,63 @@
+// The suspension kinds: the one list every part of the app reads (schemas, database check,
+// point table, diagram, import, 3-D view, solver). Client-safe.
+import { doubleWishbone } from './double-wishbone';
+import { multiLink } from './multi-link';
+import { semiTrailing } from './semi-trailing';
+import { strut } from './strut';
+import { ROCKER_KEYS, ROCKER_POINTS, SPRING_POINTS, type KindSpec, type PointSpec } from './types';
+
+export type { BodyName, JointSpec, KindSpec, PointSpec, SteeringAxisSpec } from './types';
+export { ROCKER_KEYS, ROCKER_POINTS, SPRING_POINTS } from './types';
+
+/** Every kind, in the order the kind picker shows them. */
+export const KIND_SPECS = [doubleWishbone, strut, multiLink, semiTrailing] as const satisfies readonly KindSpec[];
+
+/** The kind names, as the file's `kind` field spells them. */
+export const CORNER_KINDS = ['double_wishbone', 'strut', 'multi_link', 'semi_trailing'] as const;
+export type CornerKind = (typeof CORNER_KINDS)[number];
+
+const BY_NAME = new Map<string, KindSpec>(KIND_SPECS.map((k) => [k.kind, k]));
+
+/** The description of `kind` (throws on an unknown kind: callers validate first). */
+export function kindSpec(kind: string): KindSpec {
+	const k = BY_NAME.get(kind);
+	if (!k) throw new Error(`unknown suspension kind ${kind}`);
+	return k;
+}
+
+/** The required point names of each kind (the contract's table). */
+export const REQUIRED_POINTS = Object.fromEntries(KIND_SPECS.map((k) => [k.kind, k.points.map((p) => p.name)])) as unknown as Record<
+	CornerKind,
+	readonly string[]
+>;
+
+/** The kinds' labels for pickers and headings. */
+export const KIND_LABELS = Object.fromEntries(KIND_SPECS.map((k) => [k.kind, k.label])) as Record<CornerKind, string>;
+
+/** Every point a kind's table shows: required, spring ends, then the rocker's when the kind takes one. */
+export function tablePoints(kind: string, rocker = false): PointSpec[] {
+	const k = kindSpec(kind);
+	return [...k.points, ...SPRING_POINTS, ...(rocker && k.rockerRodOn.length ? ROCKER_POINTS : [])];
+}
+
+/** Every point name any kind knows, including the rocker's table names (`rocker.pivot_a`, ...). */
+export const ALL_POINT_NAMES: readonly string[] = [
+	...new Set([...KIND_SPECS.flatMap((k) => k.points.map((p) => p.name)), ...SPRING_POINTS.map((p) => p.name), ...ROCKER_POINTS.map((p) => p.name)])
+];
+
+/** The spec of point `name` (any kind), or undefined. */
+export function pointSpec(name: string, kind?: string): PointSpec | undefined {
+	const own = kind ? kindSpec(kind).points.find((p) => p.name === name) : undefined;
+	if (own) return own;
+	for (const k of KIND_SPECS) {
+		const p = k.points.find((q) => q.name === name);
+		if (p) return p;
+	}
+	return [...SPRING_POINTS, ...ROCKER_POINTS].find((p) => p.name === name);
+}
+
+/** The `rocker` block's key of a table name (`rocker.rod_end` → `rod_end`), or null. */
+export function rockerKey(name: string): (typeof ROCKER_KEYS)[number] | null {
+	const key = name.startsWith('rocker.') ? name.slice(7) : '';
+	return (ROCKER_KEYS as readonly string[]).includes(key) ? (key as (typeof ROCKER_KEYS)[number]) : null;
+}

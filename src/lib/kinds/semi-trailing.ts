@@ -1,0 +1,44 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; lengths in mm.
+// Semi-trailing arm: one arm pivoting about an axis on the chassis carries the upright rigidly
+// (a trailing arm when the axis is parallel to y). It does not steer.
+import type { KindSpec } from './types';
+
+export const semiTrailing: KindSpec = {
+	kind: 'semi_trailing',
+	label: 'Semi-trailing arm',
+	summary: 'One arm pivoting about an axis on the chassis carries the upright; a trailing arm when the axis is square to the car. It does not steer.',
+	points: [
+		{ name: 'arm.front', label: 'Trailing arm, inner pivot', description: "One chassis bush of the arm; with the other it sets the arm's pivot axis.", body: 'chassis', diagram: [30, 70], aliases: ['trailing arm pivot inner', 'trailing arm front', 'semi trailing arm inner', 'arm pivot inner'] },
+		{ name: 'arm.rear', label: 'Trailing arm, outer pivot', description: 'The other chassis bush of the arm.', body: 'chassis', diagram: [54, 68], aliases: ['trailing arm pivot outer', 'trailing arm rear', 'semi trailing arm outer', 'arm pivot outer'] },
+		{ name: 'wheel.centre', label: 'Wheel centre', description: "Centre of the wheel on its spin axis, in the wheel's centre plane.", body: 'arm', diagram: [84, 56], aliases: ['wheel center', 'hub centre'] },
+		{ name: 'wheel.axis_inner', label: 'Spin axis, inner point', description: "Any point on the wheel's spin axis inboard of the centre; with the centre it sets static camber and toe.", body: 'arm', diagram: [76, 56], aliases: ['spin axis inner', 'hub inner'] }
+	],
+	joints: [
+		{ type: 'pivot', body: 'arm', axis: ['arm.front', 'arm.rear'] },
+		{ type: 'rigid', body: 'arm' }
+	],
+	steeringAxis: { type: 'none' },
+	instantCentres: 'motion',
+	springOn: ['arm', 'upright'],
+	rockerRodOn: ['arm', 'upright'],
+	steers: false,
+	diagram: [
+		['arm.front', 'arm.rear'],
+		['arm.front', 'wheel.axis_inner'],
+		['arm.rear', 'wheel.axis_inner'],
+		['wheel.axis_inner', 'wheel.centre']
+	],
+	// Invented: a road car's rear left corner.
+	template: {
+		points: {
+			'arm.front': [-2250, 150, 280],
+			'arm.rear': [-2350, 560, 290],
+			'wheel.centre': [-2600, 740, 299.934],
+			'wheel.axis_inner': [-2600.262, 640.022, 297.84],
+			'spring.chassis': [-2520, 560, 560],
+			'spring.body': [-2500, 580, 250]
+		},
+		spring_on: 'arm',
+		tyre: { loaded_radius: 300 }
+	}
+};
