@@ -57,7 +57,7 @@ export const multiLink: KindSpec = {
 			'lower_front.outer': [-2660, 580, 105],
 			'lower_rear.inner': [-2850, 240, 90],
 			'lower_rear.outer': [-2740, 585, 110],
-			'steer.inner': [-2840, 218, 150],
+			'steer.inner': [-2840, 218, 141],
 			'steer.outer': [-2830, 590, 160],
 			'wheel.centre': [-2700, 610, 279.904],
 			'wheel.axis_inner': [-2700.174, 510.034, 277.286],

@@ -8,8 +8,8 @@ export const semiTrailing: KindSpec = {
 	label: 'Semi-trailing arm',
 	summary: 'One arm pivoting about an axis on the chassis carries the upright; a trailing arm when the axis is square to the car. It does not steer.',
 	points: [
-		{ name: 'arm.front', label: 'Trailing arm, inner pivot', description: "One chassis bush of the arm; with the other it sets the arm's pivot axis.", body: 'chassis', diagram: [30, 70], aliases: ['trailing arm pivot inner', 'trailing arm front', 'semi trailing arm inner', 'arm pivot inner'] },
-		{ name: 'arm.rear', label: 'Trailing arm, outer pivot', description: 'The other chassis bush of the arm.', body: 'chassis', diagram: [54, 68], aliases: ['trailing arm pivot outer', 'trailing arm rear', 'semi trailing arm outer', 'arm pivot outer'] },
+		{ name: 'arm.front', label: 'Trailing arm, front pivot', description: "The forward chassis bush of the arm; with the rear one it sets the arm's pivot axis.", body: 'chassis', diagram: [54, 68], aliases: ['trailing arm pivot front', 'trailing arm front', 'semi trailing arm front', 'trailing arm pivot outer'] },
+		{ name: 'arm.rear', label: 'Trailing arm, rear pivot', description: 'The rearward chassis bush of the arm (inboard on a semi-trailing arm).', body: 'chassis', diagram: [30, 70], aliases: ['trailing arm pivot rear', 'trailing arm rear', 'semi trailing arm rear', 'trailing arm pivot inner'] },
 		{ name: 'wheel.centre', label: 'Wheel centre', description: "Centre of the wheel on its spin axis, in the wheel's centre plane.", body: 'arm', diagram: [84, 56], aliases: ['wheel center', 'hub centre'] },
 		{ name: 'wheel.axis_inner', label: 'Spin axis, inner point', description: "Any point on the wheel's spin axis inboard of the centre; with the centre it sets static camber and toe.", body: 'arm', diagram: [76, 56], aliases: ['spin axis inner', 'hub inner'] }
 	],
@@ -31,8 +31,8 @@ export const semiTrailing: KindSpec = {
 	// Invented: a road car's rear left corner.
 	template: {
 		points: {
-			'arm.front': [-2250, 150, 280],
-			'arm.rear': [-2350, 560, 290],
+			'arm.front': [-2250, 560, 290],
+			'arm.rear': [-2350, 150, 285],
 			'wheel.centre': [-2600, 740, 299.934],
 			'wheel.axis_inner': [-2600.262, 640.022, 297.84],
 			'spring.chassis': [-2520, 560, 560],

@@ -77,6 +77,8 @@ class Walker {
 	prev2Theta = 0;
 	prev3P = 0;
 	prev3Theta = 0;
+	prev4P = 0;
+	prev4Theta = 0;
 	nHist = 0;
 	/** rods chain: the last two solved poses (Branch.q) */
 	readonly prevQ = new Float64Array(12);
@@ -86,7 +88,7 @@ class Walker {
 const walker = new Walker();
 const DESIGN = new Branch();
 
-/** Set w.pose.guess: θ (rad) at w.at extrapolated from the last one to three solutions. */
+/** Set w.pose.guess: θ (rad) at w.at extrapolated from the last one to four solutions. */
 function predict(m: CornerModel, w: Walker): void {
 	if (m.chain === CHAIN_RODS) return predictPose(w);
 	const x = w.at;
@@ -100,12 +102,21 @@ function predict(m: CornerModel, w: Walker): void {
 		w.pose.guess = w.nHist >= 1 ? t1 : w.ref.theta;
 	} else if (w.nHist < 3 || p3 === p1 || p3 === p2) {
 		w.pose.guess = t1 + ((t1 - t2) * (x - p1)) / (p1 - p2);
-	} else {
+	} else if (w.nHist < 4 || w.prev4P === p1 || w.prev4P === p2 || w.prev4P === p3) {
 		// Lagrange quadratic through the last three solved positions
 		const l1 = ((x - p2) * (x - p3)) / ((p1 - p2) * (p1 - p3));
 		const l2 = ((x - p1) * (x - p3)) / ((p2 - p1) * (p2 - p3));
 		const l3 = ((x - p1) * (x - p2)) / ((p3 - p1) * (p3 - p2));
 		w.pose.guess = l1 * t1 + l2 * t2 + l3 * t3;
+	} else {
+		// Lagrange cubic through the last four: on a 1 mm grid its error is about a tenth of the quadratic's
+		const p4 = w.prev4P;
+		const t4 = w.prev4Theta;
+		const l1 = ((x - p2) * (x - p3) * (x - p4)) / ((p1 - p2) * (p1 - p3) * (p1 - p4));
+		const l2 = ((x - p1) * (x - p3) * (x - p4)) / ((p2 - p1) * (p2 - p3) * (p2 - p4));
+		const l3 = ((x - p1) * (x - p2) * (x - p4)) / ((p3 - p1) * (p3 - p2) * (p3 - p4));
+		const l4 = ((x - p1) * (x - p2) * (x - p3)) / ((p4 - p1) * (p4 - p2) * (p4 - p3));
+		w.pose.guess = l1 * t1 + l2 * t2 + l3 * t3 + l4 * t4;
 	}
 }
 
@@ -152,6 +163,8 @@ function step(m: CornerModel, w: Walker): number {
 	setBranch(w.ref, w.pose.branch);
 	w.prev2Q.set(w.prevQ);
 	w.prevQ.set(w.pose.branch.q);
+	w.prev4P = w.prev3P;
+	w.prev4Theta = w.prev3Theta;
 	w.prev3P = w.prev2P;
 	w.prev3Theta = w.prev2Theta;
 	w.prev2P = w.prevP;
