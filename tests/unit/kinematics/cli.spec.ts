@@ -25,7 +25,7 @@ function solve(...args: string[]): Promise<Run> {
 	});
 }
 
-const KEYS = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'wheelbase_change', 'fvic', 'fvsa', 'rc_height', 'svic', 'anti_dive', 'anti_squat', 'camber_ground', 'motion_ratio', 'wheel_centre', 'contact_patch'];
+const KEYS = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'wheelbase_change', 'fvic', 'fvsa', 'rc_height', 'svic', 'anti_dive', 'anti_squat', 'camber_ground', 'motion_ratio', 'rocker_angle', 'wheel_centre', 'contact_patch'];
 const tmp = mkdtempSync(join(tmpdir(), 'linkwright-cli-'));
 
 /** Write a corner (or raw text) to a temporary file; returns its path. */
@@ -139,5 +139,30 @@ describe('solve command', { timeout: 240_000 }, () => {
 		expect(a.code).toBe(0);
 		expect(Math.abs(JSON.parse(a.stdout).samples[0].toe)).toBeGreaterThan(1);
 		expect(b.code).toBe(1);
+	});
+	it('the general model\'s kinds: five-link, semi-trailing arm and a pushrod rocker solve with every key; a steer sweep of a semi-trailing arm exits 1 naming sweep; a rod that cannot reach exits 2 naming pushrod', async () => {
+		const [five, semi, push, steer] = await Promise.all([
+			solve(join(ROOT, 'fixtures', 'single-seater-rear-left-five-link.json'), '--sweep', 'roll'),
+			solve(join(ROOT, 'fixtures', 'road-rear-left-semi-trailing.json')),
+			solve(join(ROOT, 'fixtures', 'single-seater-front-left-pushrod.json'), '--from', '-20', '--to', '20', '--step', '10'),
+			solve(join(ROOT, 'fixtures', 'road-rear-left-semi-trailing.json'), '--sweep', 'steer')
+		]);
+		for (const [run, kind] of [[five, 'multi_link'], [semi, 'semi_trailing'], [push, 'double_wishbone']] as const) {
+			expect(run.code, run.stderr).toBe(0);
+			const out = JSON.parse(run.stdout);
+			expect(out.kind).toBe(kind);
+			for (const sample of out.samples) for (const key of KEYS) expect(sample).toHaveProperty(key);
+		}
+		const rocker = JSON.parse(push.stdout).samples.map((s: { rocker_angle: number }) => s.rocker_angle);
+		expect(rocker[2]).toBe(0);
+		expect(rocker[0]).toBeGreaterThan(0); // rebound turns this rocker positively about pivot_a → pivot_b
+		expect(JSON.parse(semi.stdout).samples[0].caster).toBeNull();
+		expect(steer.code).toBe(1);
+		expect(steer.stderr.trim()).toMatch(/^--sweep: /);
+		const c = JSON.parse(JSON.stringify(fixture('single-seater-front-left-pushrod')));
+		c.rocker.rod_end = [0, 262, 480]; // a 15 mm lever cannot follow the rod far
+		const stuck = await solve(tempFile('pushrod-stuck.json', c), '--from', '-100', '--to', '100');
+		expect(stuck.code).toBe(2);
+		expect(stuck.stderr.trim()).toMatch(/^pushrod: cannot be assembled at travel -?\d+ mm$/);
 	});
 });

@@ -19,8 +19,22 @@ const CASES: [string, SweepKind, number, number, number][] = [
 	['road-strut-front-left', 'steer', -40, 40, 10],
 	['single-seater-front-left', 'heave', -50, 50, 10],
 	['single-seater-rear-left', 'heave', -50, 50, 10],
-	['cannot-assemble', 'heave', -50, 25, 5]
+	['cannot-assemble', 'heave', -50, 25, 5],
+	['single-seater-rear-left-five-link', 'heave', -80, 80, 10],
+	['single-seater-rear-left-five-link', 'roll', -3, 3, 1],
+	['single-seater-rear-left-five-link', 'steer', -20, 20, 10],
+	['road-rear-left-semi-trailing', 'heave', -80, 80, 10],
+	['road-rear-left-semi-trailing', 'roll', -3, 3, 1],
+	['single-seater-front-left-pushrod', 'heave', -50, 50, 10]
 ];
+
+/** The upright points the reference reports, by kind (lower joint, second point, steer joint). */
+const NAMES: Record<string, [string, string, string]> = {
+	double_wishbone: ['lower.outer', 'upper.outer', 'steer.outer'],
+	strut: ['lower.outer', 'strut.lower', 'steer.outer'],
+	multi_link: ['lower_front.outer', 'upper_front.outer', 'steer.outer'],
+	semi_trailing: ['arm.front', 'arm.rear', 'wheel.centre']
+};
 
 describe('engine poses = general mathjs 6-DOF Newton route (within 1e-6 mm)', () => {
 	for (const [name, sweep, from, to, step] of CASES) {
@@ -30,14 +44,14 @@ describe('engine poses = general mathjs 6-DOF Newton route (within 1e-6 mm)', ()
 			expect(error).toBeNull();
 			const positions = samples.map((s) => (s.travel ?? s.roll ?? s.rack) as number);
 			const ref = referenceSweep(corner, sweep, positions);
-			const second = corner.kind === 'strut' ? 'strut.lower' : 'upper.outer';
+			const [lower, second, steer] = NAMES[corner.kind];
 			samples.forEach((s, i) => {
 				const r = ref.poses[i];
 				expect(r).not.toBeNull();
 				const pairs: [number[], number[]][] = [
-					[s.points!['lower.outer'], r!.lowerOuter],
+					[s.points![lower], r!.lowerOuter],
 					[s.points![second], r!.second],
-					[s.points!['steer.outer'], r!.steerOuter],
+					[s.points![steer], r!.steerOuter],
 					[s.wheel_centre, r!.wheelCentre],
 					[s.points!['wheel.axis_inner'], r!.axisInner]
 				];

@@ -13,7 +13,8 @@ type V = [number, number, number];
 export interface ReferencePose {
 	position: number;
 	lowerOuter: V;
-	/** upper.outer (double wishbone) or strut.lower (strut) */
+
+	/** upper.outer (double wishbone), strut.lower (strut), upper_front.outer (five-link), arm.rear (semi-trailing) */
 	second: V;
 	steerOuter: V;
 	wheelCentre: V;
@@ -43,7 +44,7 @@ function rotation(r: V): number[][] {
 	return (expm(k) as Matrix).toArray() as number[][];
 }
 
-/** Body point b (design, mm) placed by state x = [rotation vector, translation] about design lower.outer L0. */
+/** Body point b (design, mm) placed by state x = [rotation vector, translation] about the design origin L0. */
 function placeAt(R: number[][], x: number[], L0: V, b: V): V {
 	const d = sub(b, L0);
 	return [0, 1, 2].map((i) => L0[i] + x[3 + i] + R[i][0] * d[0] + R[i][1] * d[1] + R[i][2] * d[2]) as V;
@@ -52,13 +53,39 @@ function placeAt(R: number[][], x: number[], L0: V, b: V): V {
 /** Sweep kind: heave travel (mm), roll (deg), or steer rack (mm). */
 export type ReferenceSweepKind = 'heave' | 'roll' | 'steer';
 
+/** The upright's names of corner c's kind: its origin, and the points a reference pose reports. */
+function namesOf(c: CornerInput): { origin: string; lower: string; second: string; steer: string } {
+	if (c.kind === 'multi_link') return { origin: 'wheel.centre', lower: 'lower_front.outer', second: 'upper_front.outer', steer: 'steer.outer' };
+	if (c.kind === 'semi_trailing') return { origin: 'arm.front', lower: 'arm.front', second: 'arm.rear', steer: 'wheel.centre' };
+	return { origin: 'lower.outer', lower: 'lower.outer', second: c.kind === 'strut' ? 'strut.lower' : 'upper.outer', steer: 'steer.outer' };
+}
+
 /** The six constraint residuals of corner c at state x for sweep position `pos`. */
 function residuals(c: CornerInput, kind: ReferenceSweepKind, pos: number, rack: number, x: number[]): number[] {
 	const P = (n: string): V => c.points[n] as PointTuple as V;
-	const L0 = P('lower.outer');
+	const L0 = P(namesOf(c).origin);
 	const R = rotation([x[0], x[1], x[2]]);
 	const at = (n: string): V => placeAt(R, x, L0, P(n));
 	const d2 = (a: V, b: V): number => dot(sub(a, b), sub(a, b));
+	const drive = driver(c, kind, pos, at('wheel.centre'), at('wheel.axis_inner'));
+	const rackAt = (n: string): V => [P(n)[0], P(n)[1] + (kind === 'steer' ? pos : rack), P(n)[2]];
+	if (c.kind === 'multi_link') {
+		// five rods, each keeping its length between its chassis (or rack) joint and its upright joint
+		const rods = ['upper_front', 'upper_rear', 'lower_front', 'lower_rear'].map((k) => [`${k}.inner`, `${k}.outer`]);
+		const out = rods.map(([i, o]) => d2(at(o), P(i)) - d2(P(o), P(i)));
+		out.push(d2(at('steer.outer'), rackAt('steer.inner')) - d2(P('steer.outer'), P('steer.inner')));
+		return [...out, drive];
+	}
+	if (c.kind === 'semi_trailing') {
+		// the upright turns about the fixed axis arm.front–arm.rear: the front pivot stays, the rear stays on the axis
+		const F = P('arm.front');
+		const axis = unit(sub(P('arm.rear'), F));
+		const e1 = unit(cross(axis, Math.abs(axis[0]) < 0.9 ? [1, 0, 0] : [0, 1, 0]));
+		const e2 = cross(axis, e1);
+		const f = sub(at('arm.front'), F);
+		const r = sub(at('arm.rear'), P('arm.rear'));
+		return [f[0], f[1], f[2], dot(r, e1), dot(r, e2), drive];
+	}
 	const L = at('lower.outer');
 	const out = [d2(L, P('lower.front')) - d2(L0, P('lower.front')), d2(L, P('lower.rear')) - d2(L0, P('lower.rear'))];
 	if (c.kind === 'strut') {
@@ -74,10 +101,8 @@ function residuals(c: CornerInput, kind: ReferenceSweepKind, pos: number, rack: 
 		const U0 = P('upper.outer');
 		out.push(d2(U, P('upper.front')) - d2(U0, P('upper.front')), d2(U, P('upper.rear')) - d2(U0, P('upper.rear')));
 	}
-	const S0 = P('steer.inner');
-	const S: V = [S0[0], S0[1] + (kind === 'steer' ? pos : rack), S0[2]];
-	out.push(d2(at('steer.outer'), S) - d2(P('steer.outer'), S0));
-	out.push(driver(c, kind, pos, at('wheel.centre'), at('wheel.axis_inner')));
+	out.push(d2(at('steer.outer'), rackAt('steer.inner')) - d2(P('steer.outer'), P('steer.inner')));
+	out.push(drive);
 	return out;
 }
 
@@ -129,14 +154,15 @@ function newton(c: CornerInput, kind: ReferenceSweepKind, pos: number, rack: num
 
 /** The pose record of state x at `pos`. */
 function poseOf(c: CornerInput, x: number[], pos: number): ReferencePose {
-	const L0 = c.points['lower.outer'] as V;
+	const names = namesOf(c);
+	const L0 = c.points[names.origin] as V;
 	const R = rotation([x[0], x[1], x[2]]);
 	const at = (n: string): V => placeAt(R, x, L0, c.points[n] as V);
 	return {
 		position: pos,
-		lowerOuter: at('lower.outer'),
-		second: at(c.kind === 'strut' ? 'strut.lower' : 'upper.outer'),
-		steerOuter: at('steer.outer'),
+		lowerOuter: at(names.lower),
+		second: at(names.second),
+		steerOuter: at(names.steer),
 		wheelCentre: at('wheel.centre'),
 		axisInner: at('wheel.axis_inner')
 	};
