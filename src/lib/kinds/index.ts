@@ -61,3 +61,41 @@ export function rockerKey(name: string): (typeof ROCKER_KEYS)[number] | null {
 	const key = name.startsWith('rocker.') ? name.slice(7) : '';
 	return (ROCKER_KEYS as readonly string[]).includes(key) ? (key as (typeof ROCKER_KEYS)[number]) : null;
 }
+
+type P = [number, number, number];
+
+/** The corner file's points and rocker block from the point table's flat points (`rocker.*` rows make the block). */
+export function splitRocker(points: Record<string, P>, rodOn: string | null): { points: Record<string, P>; rocker: Record<string, unknown> | null } {
+	const own: Record<string, P> = {};
+	const block: Record<string, unknown> = {};
+	for (const [name, p] of Object.entries(points)) {
+		const key = rockerKey(name);
+		if (key) block[key] = p;
+		else own[name] = p;
+	}
+	if (!rodOn || !Object.keys(block).length) return { points: own, rocker: null };
+	return { points: own, rocker: { ...block, rod_on: rodOn } };
+}
+
+/** The point table's flat points of a corner file: its points plus the rocker block's under `rocker.*`. */
+export function joinRocker(points: Record<string, P>, rocker: Record<string, unknown> | null | undefined): Record<string, P> {
+	if (!rocker) return points;
+	const out = { ...points };
+	for (const k of ROCKER_KEYS) if (Array.isArray(rocker[k])) out[`rocker.${k}`] = rocker[k] as P;
+	return out;
+}
+
+/**
+ * A kind's template placed for a corner: mirrored to the right side when `position` is a right corner,
+ * and moved along x so its wheel centre sits on the front axle (x = 0) or the rear (x = −wheelbase).
+ */
+export function templateFor(kind: string, position: string, wheelbase: number | null) {
+	const t = kindSpec(kind).template;
+	const rear = position.startsWith('rear');
+	const right = position.endsWith('right');
+	const w = t.points['wheel.centre'];
+	const dx = (rear ? -(wheelbase ?? 2600) : 0) - w[0];
+	const move = (p: P): P => [Math.round((p[0] + dx) * 1000) / 1000, right ? -p[1] : p[1], p[2]];
+	const points = Object.fromEntries(Object.entries(t.points).map(([k, p]) => [k, move(p)])) as Record<string, P>;
+	return { kind, points, spring_on: t.spring_on, tyre: { ...t.tyre } };
+}

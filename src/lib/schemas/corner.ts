@@ -1,6 +1,9 @@
 // Corner and revision inputs, shared by forms, API v1 and the client.
 import { z } from 'zod';
+import { CORNER_KINDS, KIND_LABELS } from '../kinds';
 import { cornerGeometrySchema, SWEEP_DEFAULTS } from './geometry';
+
+export { KIND_LABELS };
 
 export const CORNER_POSITIONS = ['front_left', 'front_right', 'rear_left', 'rear_right'] as const;
 export type CornerPosition = (typeof CORNER_POSITIONS)[number];
@@ -12,11 +15,10 @@ export const POSITION_LABELS: Record<CornerPosition, string> = {
 	rear_right: 'Rear right'
 };
 
-export const KIND_LABELS = { double_wishbone: 'Double wishbone', strut: 'Strut' } as const;
 
 export const cornerInput = z.object({
 	position: z.enum(CORNER_POSITIONS, { message: 'position must be front_left, front_right, rear_left or rear_right' }),
-	kind: z.enum(['double_wishbone', 'strut'], { message: 'kind must be double_wishbone or strut' })
+	kind: z.enum(CORNER_KINDS, { message: `kind must be one of ${CORNER_KINDS.join(', ')}` })
 });
 
 export const revisionInput = z.object({
@@ -50,6 +52,7 @@ export const SAMPLE_FIELDS = [
 	'anti_squat',
 	'camber_ground',
 	'motion_ratio',
+	'rocker_angle',
 	'wheel_centre',
 	'contact_patch'
 ] as const;

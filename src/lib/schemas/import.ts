@@ -3,7 +3,7 @@
 // field of the multipart form). Client-safe: imports only zod.
 
 import { z } from 'zod';
-import { REQUIRED_POINTS } from './geometry';
+import { ALL_POINT_NAMES } from '../kinds';
 
 /** Limits of the import; all lengths in mm. */
 export const IMPORT_LIMITS = {
@@ -21,10 +21,8 @@ export const IMPORT_LIMITS = {
 	collinearMm: 1e-3
 } as const;
 
-/** Every point name of `corner-geometry/1` (required ones of both kinds plus the spring ends). */
-export const KNOWN_POINTS: readonly string[] = [
-	...new Set([...REQUIRED_POINTS.double_wishbone, ...REQUIRED_POINTS.strut, 'spring.chassis', 'spring.body'])
-];
+/** Every point name of every kind, the spring ends and the rocker's points (`rocker.pivot_a`, ...). */
+export const KNOWN_POINTS: readonly string[] = ALL_POINT_NAMES;
 
 export const UNITS = ['mm', 'cm', 'm', 'in'] as const;
 export type LengthUnit = (typeof UNITS)[number];

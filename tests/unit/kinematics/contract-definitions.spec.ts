@@ -81,7 +81,7 @@ describe('contract measures at design, recomputed from the contract text', () =>
 			const c = fixture(name);
 			const e = solveSweep(c, { sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0];
 			const x = byContract(c);
-			for (const k of ['camber', 'toe', 'caster', 'kpi'] as const) expect(Math.abs(e[k] - x[k])).toBeLessThan(1e-9);
+			for (const k of ['camber', 'toe', 'caster', 'kpi'] as const) expect(Math.abs(e[k]! - x[k])).toBeLessThan(1e-9);
 			for (const k of ['scrub_radius', 'trail', 'fvsa', 'rc_height', 'anti_dive', 'anti_squat'] as const) {
 				if (x[k] === null) expect(e[k]).toBeNull();
 				else expect(Math.abs((e[k] as number) - (x[k] as number))).toBeLessThan(1e-6);

@@ -1,4 +1,5 @@
 // Revision A against revision B: which points moved, and how each figure changed through heave.
+import { joinRocker } from '$lib/kinds';
 import type { CornerGeometry } from '$lib/schemas/geometry';
 import { judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure } from '$lib/schemas/targets';
 import type { Sample } from '$lib/server/kinematics';
@@ -15,11 +16,13 @@ export const SUMMARY_RANGE = 40;
 
 /** Points that differ between A and B (mm), largest move first. */
 export function movedPoints(a: CornerGeometry, b: CornerGeometry) {
-	const names = [...new Set([...Object.keys(a.points), ...Object.keys(b.points)])];
+	const pa = joinRocker(a.points, a.rocker);
+	const pb = joinRocker(b.points, b.rocker);
+	const names = [...new Set([...Object.keys(pa), ...Object.keys(pb)])];
 	return names
 		.map((name) => {
-			const p = a.points[name];
-			const q = b.points[name];
+			const p = pa[name];
+			const q = pb[name];
 			if (!p || !q) return { name, dx: null, dy: null, dz: null, d: null, only: p ? 'a' : 'b' };
 			const [dx, dy, dz] = [q[0] - p[0], q[1] - p[1], q[2] - p[2]];
 			return { name, dx, dy, dz, d: Math.hypot(dx, dy, dz), only: null };

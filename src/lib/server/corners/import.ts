@@ -1,6 +1,7 @@
 // CSV import for a corner: runs the import library against the corner's current revision and the team's
 // remembered mapping, builds the corner file, and saves it with the original upload in one transaction.
 import { error } from '@sveltejs/kit';
+import { kindSpec, splitRocker } from '$lib/kinds';
 import { z } from 'zod';
 import { cornerGeometrySchema, formatIssue, type CornerGeometry } from '$lib/schemas/geometry';
 import { importCorner, type ImportPreview } from '$lib/server/import';
@@ -47,12 +48,16 @@ function refuse(code: string, message: string, field?: string): never {
 function geometryOf(req: ImportRequest, preview: ImportPreview, current: CornerGeometry | null): CornerGeometry {
 	const loaded = req.loadedRadius ?? current?.tyre.loaded_radius;
 	if (loaded === undefined) refuse('invalid', 'loadedRadius: the corner has no revision yet, so give the tyre loaded radius (mm)', 'loadedRadius');
+	const spec = kindSpec(req.corner.kind);
+	// rocker points in the file make the rocker block; its rod rides where the current revision's did, else the kind's first choice
+	const { points, rocker } = splitRocker(preview.points, current?.rocker?.rod_on ?? spec.rockerRodOn[0] ?? null);
 	const raw = {
 		format: 'corner-geometry/1',
 		name: `${req.car.name}, ${req.corner.position.replace('_', ' ')}, imported from ${req.file.name}`,
 		kind: req.corner.kind,
-		points: preview.points,
-		...(preview.points['spring.body'] ? { spring_on: req.springOn ?? current?.spring_on ?? 'lower' } : {}),
+		points,
+		...(rocker ? { rocker } : {}),
+		...(points['spring.body'] && !rocker ? { spring_on: req.springOn ?? current?.spring_on ?? spec.springOn[0] } : {}),
 		tyre: { loaded_radius: loaded },
 		vehicle: current?.vehicle ?? vehicleFromCar(req.car, req.corner)
 	};

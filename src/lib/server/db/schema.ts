@@ -1,5 +1,6 @@
 // Linkwright's tables. Lengths in mm and angles in degrees wherever a column holds geometry.
 import { sql } from 'drizzle-orm';
+import { CORNER_KINDS } from '../../kinds';
 import {
 	bigserial,
 	boolean,
@@ -20,7 +21,8 @@ import {
 
 export const ROLES = ['owner', 'engineer', 'viewer'] as const;
 export const CORNER_POSITIONS = ['front_left', 'front_right', 'rear_left', 'rear_right'] as const;
-export const SUSPENSION_KINDS = ['double_wishbone', 'strut'] as const;
+/** The suspension kinds: the one list of the kinds' descriptions (src/lib/kinds). */
+export const SUSPENSION_KINDS = CORNER_KINDS;
 export const DRIVE_LAYOUTS = ['fwd', 'rwd', 'awd'] as const;
 export const SHARE_SCOPES = ['revision', 'car'] as const;
 

@@ -3,6 +3,7 @@
 // mapping from the file's names to ours (team aliases, this import's names, common spellings),
 // and the side column (L/R, left/right).
 
+import { KIND_SPECS, ROCKER_POINTS, SPRING_POINTS } from '../../kinds';
 import { KNOWN_POINTS, type ColumnRef, type ColumnsOption } from '../../schemas/import';
 import { ImportError } from './errors';
 
@@ -115,12 +116,26 @@ function wordKey(name: string): string {
 /** Our names by word key, plus the wheel spin-axis point reachable as "wheel axis inner". */
 const GUESS_BY_KEY: Map<string, string> = new Map(KNOWN_POINTS.map((p) => [wordKey(p.replace('_', ' ')), p]));
 
-/** Our point name for a file name by spelling alone (case, separators, common words); null if none. */
+/** A name reduced to lower-case words separated by single spaces. */
+function words(name: string): string {
+	return name
+		.toLowerCase()
+		.split(/[^a-z0-9]+/)
+		.filter(Boolean)
+		.join(' ');
+}
+
+/** The trade's names of every kind's points (the kinds' `aliases`), as words → our name. */
+const BY_ALIAS: Map<string, string> = new Map(
+	[...KIND_SPECS.flatMap((k) => k.points), ...SPRING_POINTS, ...ROCKER_POINTS].flatMap((p) => (p.aliases ?? []).map((a) => [words(a), p.name] as const))
+);
+
+/** Our point name for a file name by spelling alone (case, separators, the trade's names, common words); null if none. */
 export function guessPointName(fileName: string): string | null {
 	const direct = fileName.trim().toLowerCase().replace(/[\s_-]+/g, '.');
 	const exact = KNOWN_POINTS.find((p) => p === direct || p.replace('_', '.') === direct);
 	if (exact) return exact;
-	return GUESS_BY_KEY.get(wordKey(fileName)) ?? null;
+	return BY_ALIAS.get(words(fileName)) ?? GUESS_BY_KEY.get(wordKey(fileName)) ?? null;
 }
 
 /** Check that every mapping target is one of our point names; `from` names the option ('names' or 'aliases'). */

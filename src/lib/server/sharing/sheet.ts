@@ -5,6 +5,7 @@ import { error } from '@sveltejs/kit';
 import { POSITION_LABELS, KIND_LABELS } from '$lib/schemas/corner';
 import { cornerGeometrySchema, type CornerGeometry } from '$lib/schemas/geometry';
 import { pointsOfKind, type Kind } from '$lib/points';
+import { joinRocker } from '$lib/kinds';
 import { hashToken } from '$lib/server/auth/tokens';
 import { movedPoints } from '$lib/server/corners/compare';
 import { solveCorner } from '$lib/server/corners/solve';
@@ -56,14 +57,15 @@ export async function openShare(token: string, clientAddress: string, { count = 
 /** The table rows in the kind's point order, then any other points of the file. */
 function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: AdoptedTolerances | null): SheetRow[] {
 	const moved = new Map(baseline ? movedPoints(baseline, g).map((m) => [m.name, m]) : []);
-	const known = pointsOfKind(g.kind as Kind).filter((p) => g.points[p.name]);
-	const extra = Object.keys(g.points).filter((n) => !known.some((p) => p.name === n)).map((name) => ({ name, label: name }));
+	const all = joinRocker(g.points, g.rocker);
+	const known = pointsOfKind(g.kind as Kind, !!g.rocker).filter((p) => all[p.name]);
+	const extra = Object.keys(all).filter((n) => !known.some((p) => p.name === n)).map((name) => ({ name, label: name }));
 	return [...known, ...extra].map((p) => {
 		const m = moved.get(p.name);
 		return {
 			name: p.name,
 			label: p.label,
-			xyz: g.points[p.name] as [number, number, number],
+			xyz: all[p.name] as [number, number, number],
 			delta: m && m.d !== null ? { dx: m.dx!, dy: m.dy!, dz: m.dz!, d: m.d } : null,
 			tolerance: tolerances?.points[p.name] ?? null
 		};
