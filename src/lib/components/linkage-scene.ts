@@ -5,6 +5,7 @@
 // Frame: ISO 8855 vehicle axes, x forward, y left, z up, millimetres, z = 0 the ground.
 // three.js is y-up, so every vehicle point (x, y, z) is drawn at three (X, Y, Z) = (y, z, x): a cyclic permutation,
 // hence still right-handed, with vehicle z up on screen. One three unit is one millimetre.
+import { kindSpec } from '$lib/kinds';
 import {
 	AmbientLight,
 	BufferGeometry,
@@ -55,7 +56,8 @@ export interface Frame {
 	rc_height: number | null;
 }
 
-export type CornerKind = 'double_wishbone' | 'strut';
+import type { CornerKind } from '$lib/kinds';
+export type { CornerKind };
 export type ViewPreset = 'front' | 'side' | 'top' | 'iso';
 
 /** Everything the scene draws; replaced as a whole when the corner or a revision changes. */
@@ -108,7 +110,6 @@ function toWorld(p: Vec3, out: Vector3): Vector3 {
 	return out.set(p[1], p[2], p[0]);
 }
 
-const CHASSIS_POINTS = new Set(['lower.front', 'lower.rear', 'upper.front', 'upper.rear', 'steer.inner', 'strut.top', 'spring.chassis']);
 const JOINT_RADIUS = 9; // mm
 const PIVOT_RADIUS = 12; // mm
 const HIGHLIGHT_SCALE = 2.2;
@@ -124,22 +125,42 @@ const REFIT_MM = 200; // a wheel centre moved further than this is another corne
 const GIZMO_PX = 170; // CSS pixels: side of the axes-triad inset
 const GIZMO_HALF = 2.1; // triad inset half-size in arrow lengths (room for the labels)
 
-/** Links of each kind: pairs of point names, or a derived upright point. */
-const ARMS: Record<CornerKind, [string, string][]> = {
-	double_wishbone: [
-		['lower.front', 'lower.outer'],
-		['lower.rear', 'lower.outer'],
-		['upper.front', 'upper.outer'],
-		['upper.rear', 'upper.outer']
-	],
-	strut: [
-		['lower.front', 'lower.outer'],
-		['lower.rear', 'lower.outer']
-	]
-};
+/** What the rig draws of a kind, read from its description (src/lib/kinds): the arms and rods, the upright's points. */
+interface KindDrawing {
+	/** arms (pivot to ball joint) and rods (inner to outer joint), pairs of point names */
+	links: [string, string][];
+	/** the strut: lower point to top mount */
+	strut: [string, string] | null;
+	/** the upright's two steering-axis points, or null (the upright is drawn as a star about the spin axis) */
+	axis: [string, string] | null;
+	/** the upright's points other than the wheel's */
+	upright: string[];
+	/** points fixed to the chassis or the rack (drawn as pivots) */
+	chassis: Set<string>;
+}
 
-/** The upper end of the upright (top of the steering axis on the upright body). */
-const UPRIGHT_TOP: Record<CornerKind, string> = { double_wishbone: 'upper.outer', strut: 'strut.lower' };
+/** The drawing of `kind`. */
+function drawingOf(kind: string): KindDrawing {
+	const spec = kindSpec(kind);
+	const links: [string, string][] = [];
+	let strut: [string, string] | null = null;
+	for (const j of spec.joints) {
+		if (j.type === 'ball') {
+			const pivot = spec.joints.find((q) => q.type === 'pivot' && q.body === j.body);
+			if (pivot && pivot.type === 'pivot') links.push([pivot.axis[0], j.at], [pivot.axis[1], j.at]);
+		} else if (j.type === 'rod') links.push([j.inner, j.outer]);
+		else if (j.type === 'slider') strut = [j.lower, j.top];
+		else if (j.type === 'rigid') {
+			const pivot = spec.joints.find((q) => q.type === 'pivot' && q.body === j.body);
+			if (pivot && pivot.type === 'pivot') links.push([pivot.axis[0], 'wheel.axis_inner'], [pivot.axis[1], 'wheel.axis_inner'], [pivot.axis[0], pivot.axis[1]]);
+		}
+	}
+	const a = spec.steeringAxis;
+	const axis: [string, string] | null = a.type === 'points' ? [a.lower, strut && a.upper === strut[1] ? strut[0] : a.upper] : null;
+	const upright = spec.points.filter((p) => (p.body === 'upright' || p.body === 'arm') && !p.name.startsWith('wheel.')).map((p) => p.name);
+	const chassis = new Set([...spec.points.filter((p) => p.body === 'chassis' || p.body === 'rack').map((p) => p.name), 'spring.chassis', 'rocker.pivot_a', 'rocker.pivot_b']);
+	return { links, strut, axis, upright, chassis };
+}
 
 const scratchA = new Vector3();
 const scratchB = new Vector3();
@@ -225,6 +246,7 @@ class RevisionRig {
 	private labels: Sprite[] = [];
 	private halo: Mesh;
 	private world = new Map<string, Vector3>();
+	private drawing: KindDrawing;
 
 	constructor(
 		private kind: CornerKind,
@@ -238,8 +260,9 @@ class RevisionRig {
 		const mat = (color: Color) =>
 			new MeshLambertMaterial({ color, transparent: look.ghost, opacity: look.opacity, depthWrite: !look.ghost });
 		const linkMat = mat(look.link);
+		const d = (this.drawing = drawingOf(kind));
 		for (const name of names) {
-			const pivot = CHASSIS_POINTS.has(name);
+			const pivot = d.chassis.has(name);
 			const m = new Mesh(shared.sphere, mat(pivot ? look.pivot : look.joint));
 			m.userData.radius = pivot ? PIVOT_RADIUS : JOINT_RADIUS;
 			m.userData.color = (pivot ? look.pivot : look.joint).clone();
@@ -255,17 +278,24 @@ class RevisionRig {
 			this.group.add(mesh);
 			this.rods.push({ mesh, a, b, radius: r });
 		};
-		for (const [a, b] of ARMS[kind]) rod(a, b);
-		const top = UPRIGHT_TOP[kind];
-		// upright body: steering axis side, down to the spin axis, and the steering arm to the tie-rod joint
-		rod('lower.outer', top);
-		rod('lower.outer', 'wheel.axis_inner');
-		rod(top, 'wheel.axis_inner');
-		rod(() => this.footOnAxis('steer.outer'), 'steer.outer');
+		for (const [a, b] of d.links) rod(a, b, b.startsWith('steer.') ? LINK_RADIUS * 0.9 : LINK_RADIUS);
+		if (d.axis) {
+			// upright body: steering axis side, down to the spin axis, and the steering arm to the tie-rod joint
+			const [low, top] = d.axis;
+			rod(low, top);
+			rod(low, 'wheel.axis_inner');
+			rod(top, 'wheel.axis_inner');
+			for (const name of d.upright) if (name !== low && name !== top) rod(() => this.footOnAxis(name), name);
+		} else for (const name of d.upright) rod(name, 'wheel.axis_inner');
 		rod('wheel.axis_inner', 'wheel.centre', LINK_RADIUS * 1.6);
-		if (kind === 'strut') rod('strut.lower', 'strut.top', STRUT_RADIUS);
-		rod('steer.inner', 'steer.outer', LINK_RADIUS * 0.9);
-		if (this.world.has('spring.chassis') && this.world.has('spring.body')) {
+		if (d.strut) rod(d.strut[0], d.strut[1], STRUT_RADIUS);
+		// the rocker: its pivot axis, its two arms from the axis, and the rod to its outer joint
+		rod('rocker.pivot_a', 'rocker.pivot_b', LINK_RADIUS * 1.2);
+		rod(() => this.rockerHub(), 'rocker.rod_end', LINK_RADIUS * 1.4);
+		rod(() => this.rockerHub(), 'rocker.spring_end', LINK_RADIUS * 1.4);
+		rod('rocker.rod_end', 'rocker.spring_end', LINK_RADIUS);
+		rod('rocker.rod_end', 'rocker.rod_outer', LINK_RADIUS * 0.9);
+		if (this.world.has('spring.chassis') && (this.world.has('spring.body') || this.world.has('rocker.spring_end'))) {
 			const g = new BufferGeometry();
 			g.setAttribute('position', new Float32BufferAttribute(new Float32Array((SPRING_SEGMENTS + 1) * 3), 3));
 			this.spring = new Line(g, new LineBasicMaterial({ color: look.link, transparent: look.ghost, opacity: look.opacity }));
@@ -327,11 +357,20 @@ class RevisionRig {
 		return g;
 	}
 
-	/** Foot of the perpendicular from a point onto the upright's steering-side line (lower.outer to its top), world. */
+	/** The rocker's hub: the middle of its pivot axis, world. */
+	private rockerHub(): Vector3 | null {
+		const a = this.world.get('rocker.pivot_a');
+		const b = this.world.get('rocker.pivot_b');
+		return a && b ? new Vector3().copy(a).add(b).multiplyScalar(0.5) : null;
+	}
+
+	/** Foot of the perpendicular from a point onto the upright's steering-side line (its lower to its upper axis point), world. */
 	private footOnAxis(name: string): Vector3 | null {
 		const p = this.world.get(name);
-		const l = this.world.get('lower.outer');
-		const u = this.world.get(UPRIGHT_TOP[this.kind]);
+		const axis = this.drawing.axis;
+		if (!axis) return null;
+		const l = this.world.get(axis[0]);
+		const u = this.world.get(axis[1]);
 		if (!p || !l || !u) return null;
 		const d = scratchA.copy(u).sub(l);
 		const len2 = d.lengthSq();
@@ -375,7 +414,7 @@ class RevisionRig {
 	private poseSpring() {
 		if (!this.spring) return;
 		const a = this.world.get('spring.chassis')!;
-		const b = this.world.get('spring.body')!;
+		const b = (this.world.get('rocker.spring_end') ?? this.world.get('spring.body'))!;
 		const axis = new Vector3().copy(b).sub(a);
 		const len = axis.length();
 		if (len < 1e-6) return;

@@ -1,17 +1,18 @@
 // Inputs of the analyses of a revision: fix search, sensitivity, tolerance study, adopted tolerances.
 // Client-safe: zod only. Lengths in mm, angles in degrees, travel = heave wheel travel (+ bump).
 import { z } from 'zod';
+import { ALL_POINT_NAMES } from '../kinds';
 
-/** Points a fix may move or a tolerance may apply to (the linkage, not the wheel or spring). */
-export const MOVABLE_POINTS = ['lower.front', 'lower.rear', 'lower.outer', 'upper.front', 'upper.rear', 'upper.outer', 'strut.top', 'strut.lower', 'steer.inner', 'steer.outer'] as const;
-export const FIT_MEASURES = ['toe', 'camber', 'caster', 'kpi', 'rc_height', 'half_track_change'] as const;
+/** Points a fix may move or a tolerance may apply to: every kind's linkage and rocker points, not the wheel or the spring ends. */
+export const MOVABLE_POINTS: readonly string[] = ALL_POINT_NAMES.filter((p) => !p.startsWith('wheel.') && !p.startsWith('spring.'));
+export const FIT_MEASURES = ['toe', 'camber', 'caster', 'kpi', 'rc_height', 'half_track_change', 'motion_ratio', 'rocker_angle'] as const;
 export type FitMeasureKey = (typeof FIT_MEASURES)[number];
 export const AXIS_NAMES = ['x', 'y', 'z'] as const;
 
 /** Analyses refuse grids larger than this (positions). */
 export const MAX_ANALYSIS_POSITIONS = 401;
 
-const point = z.enum(MOVABLE_POINTS, { message: `must be one of ${MOVABLE_POINTS.join(', ')}` });
+const point = z.string({ message: 'must be a point name' }).refine((p) => MOVABLE_POINTS.includes(p), { message: `must be one of ${MOVABLE_POINTS.join(', ')}` });
 const axis = z.enum(AXIS_NAMES, { message: "must be 'x', 'y' or 'z'" });
 
 export const travelSchema = z

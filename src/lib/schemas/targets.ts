@@ -2,7 +2,7 @@
 // Client-safe: zod only. Degrees and mm as the solve output.
 import { z } from 'zod';
 
-export const TARGET_MEASURES = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'rc_height', 'motion_ratio'] as const;
+export const TARGET_MEASURES = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'rc_height', 'motion_ratio', 'rocker_angle'] as const;
 export type TargetMeasure = (typeof TARGET_MEASURES)[number];
 
 export const targetSchema = z
@@ -54,7 +54,7 @@ export function judge(samples: readonly Sample[], target: Target): TargetResult 
 const WORDS: Record<TargetMeasure, [string, string]> = {
 	camber: ['Camber', '°'], toe: ['Toe', '°'], caster: ['Caster', '°'], kpi: ['Kingpin inclination', '°'],
 	scrub_radius: ['Scrub radius', 'mm'], trail: ['Trail', 'mm'], half_track_change: ['Half-track change', 'mm'],
-	rc_height: ['Roll-centre height', 'mm'], motion_ratio: ['Motion ratio', '']
+	rc_height: ['Roll-centre height', 'mm'], motion_ratio: ['Motion ratio', ''], rocker_angle: ['Rocker angle', '°']
 };
 
 /** The measure's label and unit. */

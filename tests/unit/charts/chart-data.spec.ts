@@ -226,13 +226,21 @@ describe('buildCsv', () => {
 });
 
 describe('measures', () => {
-	it('lists the ten chartable contract fields once each, with units', () => {
+	it('lists the eleven chartable contract fields once each, with units', () => {
 		const keys = MEASURES.map((m) => m.key);
 		expect(new Set(keys).size).toBe(keys.length);
-		expect(keys).toEqual(['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'rc_height', 'motion_ratio', 'camber_ground']);
+		expect(keys).toEqual(['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'rc_height', 'motion_ratio', 'rocker_angle', 'camber_ground']);
 		expect(measure('toe')).toMatchObject({ unit: '°', sign: '+ = toe-in' });
 		expect(measure('kpi').label).toBe('Kingpin inclination');
 		expect(measure('motion_ratio').unit).toBe('');
+	});
+
+	it('a corner without a steering axis charts no caster, KPI, scrub or trail; the rocker angle only with a rocker', () => {
+		const semi = measuresFor('heave', { steeringAxis: false }).map((m) => m.key);
+		for (const k of ['caster', 'kpi', 'scrub_radius', 'trail'] as const) expect(semi).not.toContain(k);
+		expect(semi).toContain('camber');
+		expect(measuresFor('heave').map((m) => m.key)).not.toContain('rocker_angle');
+		expect(measuresFor('heave', { rocker: true }).map((m) => m.key)).toContain('rocker_angle');
 	});
 
 	it('roll-centre height is heave only, camber to ground roll only (contract)', () => {

@@ -112,3 +112,19 @@ describe('names and sides', () => {
 		expect(p.warnings).toEqual(['wheel.centre lands on the left side (y = 720.0 mm) but the corner is a right corner: mirror it?']);
 	});
 });
+
+describe("the trade's names of the general model's kinds (the kinds' aliases)", () => {
+	it('five-link links, toe link, trailing arm pivots, pushrod, pullrod, rocker and bell crank', () => {
+		expect(guessPointName('Lower front link inner')).toBe('lower_front.inner');
+		expect(guessPointName('UPPER_REAR_LINK_OUTER')).toBe('upper_rear.outer');
+		expect(guessPointName('toe link outer')).toBe('steer.outer');
+		expect(guessPointName('Trailing arm pivot front')).toBe('arm.front');
+		expect(guessPointName('trailing-arm-pivot-inner')).toBe('arm.rear');
+		expect(guessPointName('Pushrod outer')).toBe('rocker.rod_outer');
+		expect(guessPointName('pullrod rocker')).toBe('rocker.rod_end');
+		expect(guessPointName('Bell crank pivot front')).toBe('rocker.pivot_a');
+		expect(guessPointName('rocker damper')).toBe('rocker.spring_end');
+		expect(guessPointName('lower_front.inner')).toBe('lower_front.inner');
+		expect(guessPointName('FRONT')).toBeNull();
+	});
+});

@@ -18,6 +18,7 @@ export type MeasureKey =
 	| 'half_track_change'
 	| 'rc_height'
 	| 'motion_ratio'
+	| 'rocker_angle'
 	| 'camber_ground';
 
 /** Units a chart axis can carry ('' = dimensionless ratio). */
@@ -50,6 +51,7 @@ export const MEASURES: readonly Measure[] = [
 	{ key: 'half_track_change', label: 'Half-track change', unit: 'mm', decimals: 2, sign: '+ = contact point outboard', sweeps: ALL },
 	{ key: 'rc_height', label: 'Roll-centre height', unit: 'mm', decimals: 1, sign: '+ = above ground', sweeps: ['heave'] },
 	{ key: 'motion_ratio', label: 'Motion ratio', unit: '', decimals: 3, sign: 'spring / wheel travel', sweeps: ALL },
+	{ key: 'rocker_angle', label: 'Rocker angle', unit: '°', decimals: 2, sign: '+ = right-handed about pivot A → B', sweeps: ALL },
 	{ key: 'camber_ground', label: 'Camber to ground', unit: '°', decimals: 2, sign: '− = top of the wheel inboard', sweeps: ['roll'] }
 ];
 
@@ -60,9 +62,13 @@ export const SWEEP_AXES: Record<SweepKind, { key: SweepKey; label: string; unit:
 	steer: { key: 'rack', label: 'Rack travel, + to the left', unit: 'mm' }
 };
 
-/** The measures defined in a sweep, in display order. */
-export function measuresFor(sweep: SweepKind): Measure[] {
-	return MEASURES.filter((m) => m.sweeps.includes(sweep));
+/** Measures that need a steering axis (none on a semi-trailing arm) or a rocker. */
+const NEEDS_AXIS: readonly MeasureKey[] = ['caster', 'kpi', 'scrub_radius', 'trail'];
+
+/** The measures defined in a sweep, in display order; `corner` leaves out what this corner cannot have. */
+export function measuresFor(sweep: SweepKind, corner: { steeringAxis?: boolean; rocker?: boolean } = {}): Measure[] {
+	const { steeringAxis = true, rocker = false } = corner;
+	return MEASURES.filter((m) => m.sweeps.includes(sweep) && (steeringAxis || !NEEDS_AXIS.includes(m.key)) && (rocker || m.key !== 'rocker_angle'));
 }
 
 /** The measure with this key; throws on an unknown key (a programming error). */

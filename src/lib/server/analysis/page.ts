@@ -1,4 +1,5 @@
 // The load shared by the fix-search and tolerance-study pages: the corner, its revisions and the one analysed.
+import { joinRocker } from '$lib/kinds';
 import { error, type RequestEvent } from '@sveltejs/kit';
 import { z } from 'zod';
 import { targetsSchema } from '$lib/schemas/targets';
@@ -15,13 +16,13 @@ export async function loadAnalysisPage(event: RequestEvent<{ cornerId: string }>
 	const chosen = asked && z.string().uuid().safeParse(asked).success ? await revisionOfCorner(db, corner.id, asked) : null;
 	if (asked && !chosen) error(404, { message: 'Revision not found', code: 'not_found' });
 	const revision = chosen ?? list[0];
-	const geometry = (chosen ?? (await revisionOfCorner(db, corner.id, list[0].id)))!.geometry as { points: Record<string, [number, number, number]> };
+	const geometry = (chosen ?? (await revisionOfCorner(db, corner.id, list[0].id)))!.geometry as { points: Record<string, [number, number, number]>; rocker?: Record<string, unknown> | null };
 	return {
 		car: { id: car.id, name: car.name },
 		corner,
 		revisions: list.map((r) => ({ id: r.id, number: r.number, label: r.label })),
 		revision: { id: revision.id, number: revision.number, label: revision.label },
-		points: geometry.points,
+		points: joinRocker(geometry.points, geometry.rocker),
 		targets: targetsSchema.catch([]).parse(car.targets),
 		canEdit: can(role, 'edit')
 	};

@@ -1,5 +1,6 @@
 // The app's side of the analyses: request → engine input, engine result → JSON, engine failures → 400s.
 // The maths lives in $lib/server/kinematics; this file only translates.
+import { joinRocker, splitRocker } from '$lib/kinds';
 import { error } from '@sveltejs/kit';
 import { AXIS_NAMES, MOVABLE_POINTS, type FixSearchRequest, type ToleranceStudyRequest } from '$lib/schemas/analysis';
 import type { CornerGeometry } from '$lib/schemas/geometry';
@@ -14,7 +15,7 @@ const axisIndex = (a: (typeof AXIS_NAMES)[number]) => AXIS_NAMES.indexOf(a) as 0
 
 /** Stops with 400 unless the corner has `point` (named as `field`). */
 function needPoint(geometry: CornerGeometry, point: string, field: string): void {
-	if (!geometry.points[point]) error(400, { message: `${field}: this corner has no point ${point}`, code: 'invalid', field });
+	if (!joinRocker(geometry.points, geometry.rocker)[point]) error(400, { message: `${field}: this corner has no point ${point}`, code: 'invalid', field });
 }
 
 /** Stops with 400 when the corner cannot be solved over the whole travel as it is. */
@@ -61,7 +62,8 @@ export function toleranceSpec(geometry: CornerGeometry, input: ToleranceStudyReq
 	const measures: CurveMeasure[] = ['toe', 'camber'];
 	if (!measures.includes(input.target.measure)) measures.push(input.target.measure);
 	evaluatorOrFail(geometry, input.travel, measures);
-	const tolerances = MOVABLE_POINTS.filter((p) => geometry.points[p]).map((point) => ({ point, ...(input.points[point] ?? input.default) }));
+	const all = joinRocker(geometry.points, geometry.rocker);
+	const tolerances = MOVABLE_POINTS.filter((p) => all[p]).map((point) => ({ point, ...(input.points[point] ?? input.default) }));
 	return { corner: geometry, grid: input.travel, tolerances, measures, samples: input.samples, seed: input.seed, distribution: input.distribution };
 }
 
@@ -92,12 +94,13 @@ export type ToleranceStudyResult = Awaited<ReturnType<typeof runToleranceStudy>>
 
 /** The geometry with `moves` (mm) added to the named coordinates. */
 export function applyMoves(geometry: CornerGeometry, moves: { point: string; axis: (typeof AXIS_NAMES)[number]; move: number }[]): CornerGeometry {
-	const points = structuredClone(geometry.points);
+	const points = structuredClone(joinRocker(geometry.points, geometry.rocker));
 	moves.forEach((m, i) => {
 		needPoint(geometry, m.point, `moves.${i}.point`);
 		points[m.point][axisIndex(m.axis)] = Math.round((points[m.point][axisIndex(m.axis)] + m.move) * 1000) / 1000;
 	});
-	return { ...geometry, points };
+	const split = splitRocker(points, geometry.rocker?.rod_on ?? null);
+	return { ...geometry, points: split.points, ...(split.rocker ? { rocker: split.rocker as CornerGeometry['rocker'] } : {}) };
 }
 
 /** The generated note of a saved fix. */

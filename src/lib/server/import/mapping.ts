@@ -114,7 +114,10 @@ function wordKey(name: string): string {
 }
 
 /** Our names by word key, plus the wheel spin-axis point reachable as "wheel axis inner". */
-const GUESS_BY_KEY: Map<string, string> = new Map(KNOWN_POINTS.map((p) => [wordKey(p.replace('_', ' ')), p]));
+const GUESS_BY_KEY: Map<string, string> = new Map(
+	// a key of one word or none (the rocker's points, the trailing arm's) would catch unrelated names: those go by alias
+	KNOWN_POINTS.map((p) => [wordKey(p.replace('_', ' ')), p] as const).filter(([k]) => k.includes(' '))
+);
 
 /** A name reduced to lower-case words separated by single spaces. */
 function words(name: string): string {
