@@ -17,6 +17,73 @@ export const DEMO_FRONT_RIGHT_ID = '00000000-0000-4000-8000-0000000000f2';
 
 type Geometry = { name: string; points: Record<string, [number, number, number]>; [k: string]: unknown };
 
+// The second invented demo car: a small rear-wheel-drive single-seater, pushrod front, five-link rear.
+export const DEMO_SINGLE_SEATER_ID = '00000000-0000-4000-8000-00000000ca02';
+// The third: an invented road car's semi-trailing rear, for a roll-centre change.
+export const DEMO_ROAD_CAR_ID = '00000000-0000-4000-8000-00000000ca03';
+
+/** Demo cars of the general model's kinds: each corner a stock revision (the baseline) and one proposed change. */
+const MORE_CARS = [
+	{
+		id: DEMO_SINGLE_SEATER_ID,
+		name: 'Single-seater demo car',
+		series: 'Invented single-seater class, rear-wheel drive',
+		wheelbaseMm: 2700,
+		cgHeightMm: 300,
+		frontBrakeFraction: 0.6,
+		driveLayout: 'rwd',
+		notes: 'An invented small single-seater: pushrod and rocker double wishbones at the front, five-link rear. Its figures are made up.',
+		targets: [{ measure: 'motion_ratio', basis: 'value', min: 0.55, max: 0.8, from: -40, to: 40 }],
+		corners: [
+			{
+				id: '00000000-0000-4000-8000-0000000002f1',
+				position: 'front_left',
+				kind: 'double_wishbone',
+				steps: [
+					{ file: 'single-seater-front-left-pushrod', label: 'stock', note: 'As drawn: pushrod to the lower wishbone, rocker on the chassis top.' },
+					{ file: 'single-seater-front-left-pushrod-softer', label: 'rod end out 10 mm', note: 'Rod joint 10 mm further out on the rocker for a softer wheel rate with the same spring.' }
+				]
+			},
+			{
+				id: '00000000-0000-4000-8000-0000000002e1',
+				position: 'rear_left',
+				kind: 'multi_link',
+				steps: [
+					{ file: 'single-seater-rear-left-five-link', label: 'stock', note: 'Five-link rear as drawn; toe link on the gearbox side plate.' },
+					{ file: 'single-seater-rear-left-five-link-toe-link-up', label: 'toe link up 8 mm', note: 'New side plate puts the toe link inner joint 8 mm higher: bump steer appears.' }
+				]
+			}
+		]
+	},
+	{
+		id: DEMO_ROAD_CAR_ID,
+		name: 'Road car demo',
+		series: 'Invented road car, rear-wheel drive',
+		wheelbaseMm: 2600,
+		cgHeightMm: 540,
+		frontBrakeFraction: 0.72,
+		driveLayout: 'rwd',
+		notes: 'An invented road car with a semi-trailing arm rear; the owner wants a higher rear roll centre. Its figures are made up.',
+		targets: [],
+		corners: [
+			{
+				id: '00000000-0000-4000-8000-0000000003e1',
+				position: 'rear_left',
+				kind: 'semi_trailing',
+				steps: [
+					{ file: 'road-rear-left-semi-trailing', label: 'stock', note: 'As measured on the jig.' },
+					{ file: 'road-rear-left-semi-trailing-inner-pivot-down', label: 'rear pivot down 15 mm', note: 'Lowering the rear (inboard) pivot 15 mm changes the arm axis: roll centre and toe curve move.' }
+				]
+			}
+		]
+	}
+] as const;
+
+/** A corner file from fixtures/. */
+function kindFixture(name: string): Geometry {
+	return JSON.parse(readFileSync(new URL(`../fixtures/${name}.json`, import.meta.url), 'utf8'));
+}
+
 /** A demo corner file from fixtures/demo. */
 function fixture(name: string): Geometry {
 	return JSON.parse(readFileSync(new URL(`../fixtures/demo/${name}.json`, import.meta.url), 'utf8'));
@@ -75,7 +142,9 @@ export async function seed(url: string) {
 				})
 				.onConflictDoUpdate({ target: cars.id, set: { name: 'Hillclimb demo car', notes: DEMO_CAR_NOTES } });
 		});
-		await seedCorners(db, (await db.select({ id: users.id }).from(users).where(eq(users.email, 'engineer@linkwright.test')))[0].id);
+		const engineer = (await db.select({ id: users.id }).from(users).where(eq(users.email, 'engineer@linkwright.test')))[0].id;
+		await seedCorners(db, engineer);
+		await seedMoreCars(db, engineer);
 	} finally {
 		await client.end();
 	}
@@ -104,6 +173,30 @@ async function seedCorners(db: Database, authorId: string) {
 	const right = mirrored(fixture('front-left-stock'), 'Hillclimb demo, front right, stock');
 	const rev = await appendRevision(db, { cornerId: DEMO_FRONT_RIGHT_ID, kind: 'double_wishbone', geometry: right, label: 'stock', note: 'Mirror of the front left.', parentId: null, authorId });
 	await setBaseline(db, DEMO_FRONT_RIGHT_ID, rev.id);
+}
+
+/** The demo cars of the general model's kinds, written once each. */
+async function seedMoreCars(db: Database, authorId: string) {
+	for (const car of MORE_CARS) {
+		const { corners: list, ...fields } = car;
+		await db
+			.insert(cars)
+			.values({ ...fields, teamId: DEMO_TEAM_ID, targets: [...fields.targets] as never })
+			.onConflictDoNothing();
+		for (const corner of list) {
+			await db.insert(corners).values({ id: corner.id, carId: car.id, position: corner.position, kind: corner.kind }).onConflictDoNothing();
+			const existing = await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.cornerId, corner.id)).limit(1);
+			if (existing.length) continue;
+			let parentId: string | null = null;
+			let baseline: string | null = null;
+			for (const step of corner.steps) {
+				const rev = await appendRevision(db, { cornerId: corner.id, kind: corner.kind, geometry: kindFixture(step.file), label: step.label, note: step.note, parentId, authorId });
+				parentId = rev.id;
+				baseline ??= rev.id;
+			}
+			await setBaseline(db, corner.id, baseline);
+		}
+	}
 }
 
 if (process.argv[1]?.endsWith('seed.ts')) {

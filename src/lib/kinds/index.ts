@@ -34,10 +34,11 @@ export const REQUIRED_POINTS = Object.fromEntries(KIND_SPECS.map((k) => [k.kind,
 /** The kinds' labels for pickers and headings. */
 export const KIND_LABELS = Object.fromEntries(KIND_SPECS.map((k) => [k.kind, k.label])) as Record<CornerKind, string>;
 
-/** Every point a kind's table shows: required, spring ends, then the rocker's when the kind takes one. */
+/** Every point a kind's table shows: required, spring ends, then the rocker's when the kind takes one (its spring then ends on the rocker). */
 export function tablePoints(kind: string, rocker = false): PointSpec[] {
 	const k = kindSpec(kind);
-	return [...k.points, ...SPRING_POINTS, ...(rocker && k.rockerRodOn.length ? ROCKER_POINTS : [])];
+	const withRocker = rocker && k.rockerRodOn.length > 0;
+	return [...k.points, ...SPRING_POINTS.filter((p) => !withRocker || p.name !== 'spring.body'), ...(withRocker ? ROCKER_POINTS : [])];
 }
 
 /** Every point name any kind knows, including the rocker's table names (`rocker.pivot_a`, ...). */

@@ -25,8 +25,7 @@ export const semiTrailing: KindSpec = {
 	diagram: [
 		['arm.front', 'arm.rear'],
 		['arm.front', 'wheel.axis_inner'],
-		['arm.rear', 'wheel.axis_inner'],
-		['wheel.axis_inner', 'wheel.centre']
+		['arm.rear', 'wheel.axis_inner']
 	],
 	// Invented: a road car's rear left corner.
 	template: {
