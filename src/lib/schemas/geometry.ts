@@ -71,7 +71,11 @@ const baseSchema = z.object({
 	kind: z.enum(CORNER_KINDS, {
 		error: (iss) => `unknown kind ${JSON.stringify(iss.input)} (expected double_wishbone or strut)`
 	}),
-	points: z.record(z.string(), pointSchema, { error: 'must be an object of named [x, y, z] points' }),
+	points: z
+		.record(z.string().regex(/^[A-Za-z][A-Za-z0-9_.-]{0,63}$/), pointSchema, {
+			error: (iss) => (iss.code === 'invalid_key' ? 'a point name is 1 to 64 letters, digits, "_", "." or "-", starting with a letter' : 'must be an object of named [x, y, z] points')
+		})
+		.refine((p) => Object.keys(p).length <= 64, 'at most 64 points (the required ones and up to about 50 of your own)'),
 	spring_on: z.enum(['lower', 'upper', 'upright'], { error: "must be 'lower', 'upper' or 'upright'" }).optional(),
 	tyre: z.object({
 		loaded_radius: z
