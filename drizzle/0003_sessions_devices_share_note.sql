@@ -18,6 +18,6 @@ ALTER TABLE "login_attempts" ADD COLUMN "device" text;--> statement-breakpoint
 ALTER TABLE "share_links" ADD COLUMN "show_revision_note" boolean DEFAULT false NOT NULL;--> statement-breakpoint
 ALTER TABLE "known_devices" ADD CONSTRAINT "known_devices_user_id_users_id_fk" FOREIGN KEY ("user_id") REFERENCES "public"."users"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "sessions" ADD CONSTRAINT "sessions_user_id_users_id_fk" FOREIGN KEY ("user_id") REFERENCES "public"."users"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
-CREATE UNIQUE INDEX "known_devices_token_key" ON "known_devices" USING btree ("token_hash");--> statement-breakpoint
+CREATE UNIQUE INDEX "known_devices_token_user_key" ON "known_devices" USING btree ("token_hash","user_id");--> statement-breakpoint
 CREATE INDEX "known_devices_user_idx" ON "known_devices" USING btree ("user_id");--> statement-breakpoint
 CREATE INDEX "sessions_user_idx" ON "sessions" USING btree ("user_id");

@@ -263,7 +263,7 @@ export const knownDevices = pgTable(
 		lastUsedAt: timestamp('last_used_at', { withTimezone: true }).notNull().defaultNow(),
 		createdAt: created()
 	},
-	(t) => [uniqueIndex('known_devices_token_key').on(t.tokenHash), index('known_devices_user_idx').on(t.userId)]
+	(t) => [uniqueIndex('known_devices_token_user_key').on(t.tokenHash, t.userId), index('known_devices_user_idx').on(t.userId)]
 );
 
 export const apiTokens = pgTable(

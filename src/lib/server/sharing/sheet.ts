@@ -70,7 +70,7 @@ function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: 
 	});
 }
 
-/** Everything the share page and its CSV show for an opened link. */
+/** Everything the share page and its CSV show for an opened link (the revision's internal note only when the link says so). */
 export async function sheetOf({ share, revision, corner, car }: Opened) {
 	const geometry = cornerGeometrySchema.parse(revision.geometry);
 	const isBaseline = corner.baselineRevisionId === revision.id;
@@ -81,7 +81,7 @@ export async function sheetOf({ share, revision, corner, car }: Opened) {
 		link: { note: share.note, expiresAt: share.expiresAt },
 		car: { name: car.name, series: car.series },
 		corner: { position: corner.position, label: POSITION_LABELS[corner.position] },
-		revision: { number: revision.number, label: revision.label, note: revision.note, createdAt: revision.createdAt, kind: revision.kind, kindLabel: KIND_LABELS[revision.kind] },
+		revision: { number: revision.number, label: revision.label, note: share.showRevisionNote ? revision.note : '', createdAt: revision.createdAt, kind: revision.kind, kindLabel: KIND_LABELS[revision.kind] },
 		baseline: isBaseline ? ('self' as const) : baselineRow && baseline ? { number: baselineRow.number, label: baselineRow.label } : null,
 		rows: rowsOf(geometry, baseline, tolerances),
 		hasTolerances: tolerances !== null,
