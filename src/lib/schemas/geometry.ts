@@ -47,6 +47,9 @@ export const REQUIRED_POINTS: Record<(typeof CORNER_KINDS)[number], readonly str
 	]
 };
 
+/** A point's name: a letter, then letters, digits, "_", "." or "-" (never a spreadsheet formula's first character). */
+export const POINT_NAME = /^[A-Za-z][A-Za-z0-9_.-]{0,63}$/;
+
 const coordinate = z
 	.number({ error: 'must be a finite number (mm)' })
 	.refine((v) => Math.abs(v) <= GEOMETRY_LIMITS.maxCoordinateMm, 'is implausibly large (mm expected)');
@@ -72,7 +75,7 @@ const baseSchema = z.object({
 		error: (iss) => `unknown kind ${JSON.stringify(iss.input)} (expected double_wishbone or strut)`
 	}),
 	points: z
-		.record(z.string().regex(/^[A-Za-z][A-Za-z0-9_.-]{0,63}$/), pointSchema, {
+		.record(z.string().regex(POINT_NAME), pointSchema, {
 			error: (iss) => (iss.code === 'invalid_key' ? 'a point name is 1 to 64 letters, digits, "_", "." or "-", starting with a letter' : 'must be an object of named [x, y, z] points')
 		})
 		.refine((p) => Object.keys(p).length <= 64, 'at most 64 points (the required ones and up to about 50 of your own)'),
