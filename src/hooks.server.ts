@@ -4,6 +4,9 @@ import type { Handle, HandleServerError } from '@sveltejs/kit';
 import { handle as authHandle } from './auth';
 import { loadAccount } from '$lib/server/auth/account';
 import { authGuard } from '$lib/server/auth/guard';
+import { installShutdown } from '$lib/server/lifecycle';
+
+installShutdown();
 
 const accountHandle: Handle = async ({ event, resolve }) => {
 	await loadAccount(event);
