@@ -1,6 +1,7 @@
 // Frame: ISO 8855 vehicle axes (x forward, y left, z up); benches report figures only, never assert on time.
 // Runs every bench module in turn and prints its figures (`npm run bench`, or `npm run bench -- NAME…`). Add new benches to BENCHES.
 
+import { ensureBuild, ensureChromium, prepareDatabase } from '../scripts/setup.mjs';
 import * as fixSearch from './fix-search';
 import * as kinematics from './kinematics';
 import * as sharing from './sharing';
@@ -20,9 +21,19 @@ const BENCHES: [string, Bench][] = [
 	['sharing', sharing]
 ];
 
+/** Parts that drive the built app in Chromium against the test database. */
+const IN_BROWSER = ['workspace', 'sharing'];
+
 // `npm run bench -- workspace sharing` runs the named parts only.
 const wanted = process.argv.slice(2);
-for (const [name, bench] of BENCHES.filter(([n]) => wanted.length === 0 || wanted.includes(n))) {
+const parts = BENCHES.filter(([n]) => wanted.length === 0 || wanted.includes(n));
+// The same set-up as `npm test` for the parts that need it: Debian's Chromium, the build and the test database.
+if (parts.some(([n]) => IN_BROWSER.includes(n))) {
+	ensureChromium();
+	ensureBuild();
+	prepareDatabase({ test: true });
+}
+for (const [name, bench] of parts) {
 	console.log(`\n== ${name}`);
 	await bench.run();
 }

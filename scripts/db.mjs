@@ -157,6 +157,15 @@ function ensureCluster(bin, state) {
 	if (result.status !== 0) throw new Error(`initdb failed:\n${result.stdout}\n${result.stderr}`);
 }
 
+/** The port the cluster's running server listens on (line 4 of postmaster.pid), or null. */
+function runningPort(dataDir) {
+	try {
+		return Number(fs.readFileSync(path.join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[3]) || null;
+	} catch {
+		return null;
+	}
+}
+
 /** True when the cluster's server answers. */
 function isRunning(bin, dataDir) {
 	return runPg(path.join(bin, 'pg_ctl'), ['-D', dataDir, 'status']).status === 0;
@@ -208,6 +217,15 @@ export function start() {
 	}
 	ensureCluster(bin, state);
 	if (isRunning(bin, state.dataDir)) {
+		const running = runningPort(state.dataDir);
+		if (running && running !== pgPort) {
+			// one cluster per checkout: it cannot serve two ports, and restarting it would cut off whoever uses it now
+			throw new Error(
+				`this checkout's PostgreSQL is already running on 127.0.0.1:${running}, not on ${pgPort} (LW_PG_PORT).\n` +
+					`[db] Either use it:   LW_PG_PORT=${running} npm ...\n` +
+					`[db] or stop it, then start again on ${pgPort}:   LW_PG_PORT=${running} npm run db stop && LW_PG_PORT=${pgPort} npm ...`
+			);
+		}
 		say(`PostgreSQL already running on 127.0.0.1:${pgPort} (reused)`);
 	} else {
 		const logFile = path.join(path.dirname(state.dataDir), 'postgres.log');
@@ -252,7 +270,7 @@ function status() {
 	const bin = ensureBinaries();
 	const state = readState();
 	const running = state && isRunning(bin, state.dataDir);
-	say(running ? `running on 127.0.0.1:${pgPort}, data in ${state.dataDir}` : 'not running');
+	say(running ? `running on 127.0.0.1:${runningPort(state.dataDir) ?? pgPort}, data in ${state.dataDir}` : 'not running');
 	process.exitCode = running ? 0 : 3;
 }
 

@@ -55,7 +55,12 @@ export function authSecret() {
 
 /** Starts PostgreSQL, then migrates and seeds one database (reset first when asked). */
 export function prepareDatabase({ test = false } = {}) {
-	startDatabase();
+	try {
+		startDatabase();
+	} catch (e) {
+		console.error(`[db] ${e instanceof Error ? e.message : e}`);
+		process.exit(1);
+	}
 	const name = test ? testDatabase : appDatabase;
 	if (test) {
 		say(`resetting ${name}`);
@@ -102,7 +107,10 @@ export function appEnv({ databaseUrl: url, port, smtpPort }) {
 		PORT: String(port),
 		// Uploads up to 5 MB are imported; larger ones must reach the app to get its clear message.
 		BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '25M',
-		ORIGIN: process.env.ORIGIN ?? `http://127.0.0.1:${port}`
+		ORIGIN: process.env.ORIGIN ?? `http://127.0.0.1:${port}`,
+		// adapter-node: on SIGTERM, requests in flight get this many seconds before their connections close, so the
+		// app exits within 5 s (the pool closes after the last request)
+		SHUTDOWN_TIMEOUT: process.env.SHUTDOWN_TIMEOUT ?? '3'
 	};
 }
 

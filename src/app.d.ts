@@ -12,6 +12,8 @@ declare global {
 			user: { id: string; email: string; name: string } | null;
 			teams: TeamRole[];
 			team: TeamRole | null;
+			/** a known-device token to set on this response (after a successful sign-in) */
+			deviceCookie?: string;
 		}
 		interface PageData {
 			user?: { id: string; email: string; name: string } | null;

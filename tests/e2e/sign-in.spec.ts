@@ -77,3 +77,28 @@ test('the app shell is keyboard-usable and has a dark theme', async ({ page }) =
 	await expect(page.locator('html')).toHaveClass(/dark/);
 	await page.screenshot({ path: 'test-results/screens/dashboard-dark.png', fullPage: true });
 });
+
+test('"Sign out everywhere" on the Account page ends the sessions of this and another browser', async ({ browser }) => {
+	const email = `e2e-everywhere-${Date.now()}@example.test`;
+	const first = await browser.newContext();
+	const page = await first.newPage();
+	await page.goto('/signup');
+	await page.getByLabel('Your name').fill('Session Tester');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel(/^Password/).fill('a long enough password');
+	await page.getByLabel('Team name').fill('Session garage');
+	await page.getByRole('button', { name: 'Create account' }).click();
+	await expect(page.getByRole('heading', { name: 'Cars' })).toBeVisible();
+	const second = await browser.newContext();
+	const other = await second.newPage();
+	await signIn(other, email, 'a long enough password');
+	await page.goto('/account');
+	await expect(page.getByText('You are signed in on 2 browsers')).toBeVisible();
+	await page.getByRole('button', { name: 'Sign out everywhere' }).click();
+	await expect(page.getByRole('heading', { name: 'Sign in' })).toBeVisible();
+	// the other browser still holds its cookie, but its session has ended on the server
+	await other.goto('/');
+	await expect(other).toHaveURL(/\/signin\?redirectTo=/);
+	await first.close();
+	await second.close();
+});

@@ -31,7 +31,7 @@ describe('sign-in', () => {
 		expect(await res.text()).toContain('Wrong e-mail or password.');
 	});
 
-	test('attempts are rate limited per account: after 8 failures even the right password is refused', async () => {
+	test('attempts are throttled per account and address: after 8 failures the right password from that address, on a browser that never signed in, waits', async () => {
 		const { email, password } = await freshAccount('limited');
 		for (let i = 0; i < 8; i++) await new Client().signIn(email, `wrong ${i}`);
 		const client = new Client();

@@ -21,6 +21,9 @@ export const GEOMETRY_LIMITS = {
 
 export { CORNER_KINDS, REQUIRED_POINTS } from '../kinds';
 
+/** A point's name: a letter, then letters, digits, "_", "." or "-" (never a spreadsheet formula's first character). */
+export const POINT_NAME = /^[A-Za-z][A-Za-z0-9_.-]{0,63}$/;
+
 const coordinate = z
 	.number({ error: 'must be a finite number (mm)' })
 	.refine((v) => Math.abs(v) <= GEOMETRY_LIMITS.maxCoordinateMm, 'is implausibly large (mm expected)');
@@ -55,7 +58,11 @@ const baseSchema = z.object({
 	kind: z.enum(CORNER_KINDS, {
 		error: (iss) => `unknown kind ${JSON.stringify(iss.input)} (expected ${CORNER_KINDS.join(', ')})`
 	}),
-	points: z.record(z.string(), pointSchema, { error: 'must be an object of named [x, y, z] points' }),
+	points: z
+		.record(z.string().regex(POINT_NAME), pointSchema, {
+			error: (iss) => (iss.code === 'invalid_key' ? 'a point name is 1 to 64 letters, digits, "_", "." or "-", starting with a letter' : 'must be an object of named [x, y, z] points')
+		})
+		.refine((p) => Object.keys(p).length <= 64, 'at most 64 points (the required ones and up to about 50 of your own)'),
 	spring_on: z.enum(['lower', 'upper', 'upright', 'arm'], { error: "must be 'lower', 'upper', 'upright' or 'arm'" }).optional(),
 	rocker: rockerSchema.nullable().optional(),
 	tyre: z.object({

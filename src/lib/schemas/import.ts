@@ -9,6 +9,8 @@ import { ALL_POINT_NAMES } from '../kinds';
 export const IMPORT_LIMITS = {
 	/** largest file accepted, bytes (issue 4: upload limit 5 MB) */
 	maxFileBytes: 5 * 1024 * 1024,
+	/** most data rows read (a point list has tens of rows; a scan export with targets a few hundred; common practice, no source) */
+	maxRows: 2000,
 	/** |coordinate| beyond this after conversion and alignment is refused (mm, issue 4) */
 	maxCoordinateMm: 5000,
 	/** a corner whose points span less than this (mm) probably has the wrong unit (common practice, no source) */

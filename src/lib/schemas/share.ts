@@ -20,7 +20,12 @@ export const createShareInput = z.object({
 			.default(SHARE_DEFAULT_DAYS)
 	),
 	note: z.preprocess((v) => v ?? '', z.string({ message: 'note must be text' }).trim().max(1000, 'note is at most 1000 characters')),
-	email: z.preprocess(blankToUndefined, email.optional())
+	email: z.preprocess(blankToUndefined, email.optional()),
+	/** show the revision's internal note on the sheet (a ticked checkbox sends "on"); off unless asked for */
+	showRevisionNote: z.preprocess(
+		(v) => (v === undefined || v === null || v === '' ? false : v === 'on' || v === 'true' ? true : v === 'false' ? false : v),
+		z.boolean({ message: 'showRevisionNote must be true or false' })
+	)
 });
 
 export type CreateShareInput = z.infer<typeof createShareInput>;

@@ -1,14 +1,16 @@
-import { fail } from '@sveltejs/kit';
+import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { hashToken, newToken } from '$lib/server/auth/tokens';
 import { db } from '$lib/server/db';
+import { openSessionCount, revokeSessionsOfUser } from '$lib/server/db/queries/sessions';
 import { apiTokensOfUser, createApiToken, revokeApiToken } from '$lib/server/db/queries/users';
 import { requireUser } from '$lib/server/permissions';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireUser(event);
-	return { tokens: await apiTokensOfUser(db, user.id) };
+	const [tokens, sessions] = await Promise.all([apiTokensOfUser(db, user.id), openSessionCount(db, user.id)]);
+	return { tokens, sessions };
 };
 
 const createForm = z.object({ name: z.string().trim().min(1, 'Give the token a name').max(80, 'Name is at most 80 characters') });
@@ -30,5 +32,12 @@ export const actions: Actions = {
 			return fail(400, { error: 'That token is not one of yours, or is already revoked.' });
 		}
 		return { revoked: id };
+	},
+	signOutEverywhere: async (event) => {
+		const user = requireUser(event);
+		await revokeSessionsOfUser(db, user.id);
+		// this browser's session ended with the others: its cookie goes too
+		for (const name of ['authjs.session-token', '__Secure-authjs.session-token']) event.cookies.delete(name, { path: '/' });
+		redirect(303, '/signin');
 	}
 };

@@ -7,7 +7,7 @@ import type { Actions, PageServerLoad } from './$types';
 
 const MESSAGES: Record<string, string> = {
 	credentials: 'Wrong e-mail or password.',
-	rate_limited: 'Too many failed sign-in attempts. Wait 15 minutes and try again.'
+	rate_limited: 'Too many failed sign-in attempts from here. Wait a minute and try again, or sign in from a browser you have used before.'
 };
 
 /** Only a path on this site is a place to return to after sign-in. */

@@ -1,9 +1,9 @@
 // Chart helpers: points from contract samples, nice ticks, read-out values, paths, bands, CSV and formatting.
 
 import { describe, expect, it } from 'vitest';
+import { buildCsv } from '../../../src/lib/components/charts/chart-csv';
 import {
 	axisTitle,
-	buildCsv,
 	extent,
 	formatNumber,
 	formatValue,

@@ -25,6 +25,15 @@ describe('bad input (issue 4)', () => {
 		expect(failure(importCorner(bytes('\uFEFF\r\n  \r\n'), mm, ctx)).message).toBe('the file is empty');
 	});
 
+	it('130,000 rows (1.7 MB, under the size limit) are refused naming the file, without overflowing the stack (issue 21)', () => {
+		const text = 'name,x,y,z\n' + Array.from({ length: 130_000 }, (_, i) => `p${i},1.5,2.5,3.5`).join('\n');
+		expect(failure(importCorner(bytes(text), mm, ctx))).toEqual({
+			code: 'too_many_rows',
+			message: 'the file has 130000 rows; a point list may have at most 2000',
+			field: 'file'
+		});
+	});
+
 	it('a header and no points', () => {
 		expect(failure(importCorner(bytes('name,x,y,z\n'), mm, ctx)).message).toBe('the file has a header row but no points');
 	});

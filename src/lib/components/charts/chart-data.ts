@@ -49,7 +49,7 @@ export interface SpreadPoint {
 }
 
 /** Two x values closer than this are the same sweep position (mm or degrees). */
-const SAME_X = 1e-9;
+export const SAME_X = 1e-9;
 
 /** The {x, y} points of `measureKey` against `sweepKey` from contract samples; non-finite or missing y becomes null. */
 export function samplesToPoints<S extends object>(samples: readonly S[], sweepKey: SweepKey, measureKey: MeasureKey): ChartPoint[] {
@@ -246,49 +246,6 @@ export function slugify(title: string): string {
 			.replace(/[^a-z0-9]+/g, '-')
 			.replace(/^-+|-+$/g, '') || 'chart'
 	);
-}
-
-/** Options of a CSV export. */
-export interface CsvOptions {
-	xLabel: string;
-	xUnit: string;
-	yLabel: string;
-	yUnit: string;
-	series: readonly Series[];
-}
-
-/** CSV text: one row per sweep position, the x column then one column per series (empty where a series has no sample); units in the header. */
-export function buildCsv({ xLabel, xUnit, yLabel, yUnit, series }: CsvOptions): string {
-	const header = [csvCell(`${xLabel} (${csvUnit(xUnit)})`), ...series.map((s) => csvCell(`${s.label}: ${yLabel} (${csvUnit(yUnit)})`))];
-	const lines = [header.join(',')];
-	const cursor = series.map(() => 0);
-	for (const x of xGrid(series)) {
-		const row = [csvNumber(x)];
-		series.forEach((s, i) => {
-			const pts = s.points;
-			while (cursor[i] < pts.length && pts[cursor[i]].x < x - SAME_X) cursor[i]++;
-			const p = pts[cursor[i]];
-			row.push(p && Math.abs(p.x - x) <= SAME_X && p.y !== null ? csvNumber(p.y) : '');
-		});
-		lines.push(row.join(','));
-	}
-	return lines.join('\r\n') + '\r\n';
-}
-
-/** A unit spelled in ASCII so every spreadsheet reads the header. */
-function csvUnit(unit: string): string {
-	return unit === '°' ? 'deg' : unit === '' ? '-' : unit;
-}
-
-/** A CSV field, quoted when it holds a comma, quote or line break. */
-function csvCell(s: string): string {
-	return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** A number for CSV: up to 6 decimals, no trailing zeros, no "-0". */
-function csvNumber(v: number): string {
-	const r = Number(v.toFixed(6));
-	return String(r === 0 ? 0 : r);
 }
 
 /** Round to 2 decimals (path coordinates in px). */

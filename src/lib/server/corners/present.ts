@@ -1,4 +1,5 @@
 // How a revision is shown through API v1 and exported.
+import { toCsv } from '$lib/csv';
 import type { Corner, Revision } from '$lib/server/db/schema';
 
 /** A revision's metadata and its corner file. */
@@ -20,16 +21,9 @@ export function revisionJson(revision: Revision, corner: Corner) {
 	};
 }
 
-/** A CSV field, quoted when it holds a delimiter, quote or line break. */
-function field(value: string) {
-	return /[",\n\r]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
-}
-
 /** The revision's points as CSV: point, x, y, z in mm, ISO 8855 vehicle axes. */
 export function pointsCsv(geometry: { points: Record<string, [number, number, number]> }) {
-	const lines = ['point,x_mm,y_mm,z_mm'];
-	for (const [name, [x, y, z]] of Object.entries(geometry.points)) lines.push([field(name), x, y, z].join(','));
-	return lines.join('\r\n') + '\r\n';
+	return toCsv([['point', 'x_mm', 'y_mm', 'z_mm'], ...Object.entries(geometry.points).map(([name, [x, y, z]]) => [name, x, y, z])]);
 }
 
 /** A file name made of safe characters. */

@@ -184,6 +184,8 @@ export const shareLinks = pgTable(
 		revisionId: uuid('revision_id').references(() => revisions.id, { onDelete: 'cascade' }),
 		carId: uuid('car_id').references(() => cars.id, { onDelete: 'cascade' }),
 		note: text('note').notNull().default(''),
+		/** the sheet shows the revision's internal note only when the engineer ticked it for this link */
+		showRevisionNote: boolean('show_revision_note').notNull().default(false),
 		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
 		revokedAt: timestamp('revoked_at', { withTimezone: true }),
 		lastOpenedAt: timestamp('last_opened_at', { withTimezone: true }),
@@ -237,6 +239,35 @@ export const passwordResets = pgTable(
 	(t) => [uniqueIndex('password_resets_token_key').on(t.tokenHash), index('password_resets_user_idx').on(t.userId)]
 );
 
+// One row per signed-in browser session: the session cookie (a signed JWT) carries the row's id, and every
+// request checks that the row is not revoked, so sign-out, a password reset, a removal from a team and "sign out
+// everywhere" end sessions at once.
+export const sessions = pgTable(
+	'sessions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+		revokedAt: timestamp('revoked_at', { withTimezone: true }),
+		createdAt: created()
+	},
+	(t) => [index('sessions_user_idx').on(t.userId)]
+);
+
+// Browsers that have signed in to an account before (a long-lived cookie holding a random token, stored hashed):
+// sign-in from a known device is not held back by the failures of others at the same address.
+export const knownDevices = pgTable(
+	'known_devices',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+		tokenHash: text('token_hash').notNull(),
+		lastUsedAt: timestamp('last_used_at', { withTimezone: true }).notNull().defaultNow(),
+		createdAt: created()
+	},
+	(t) => [uniqueIndex('known_devices_token_user_key').on(t.tokenHash, t.userId), index('known_devices_user_idx').on(t.userId)]
+);
+
 export const apiTokens = pgTable(
 	'api_tokens',
 	{
@@ -272,6 +303,8 @@ export const loginAttempts = pgTable(
 		id: bigserial('id', { mode: 'number' }).primaryKey(),
 		email: text('email').notNull(),
 		address: text('address').notNull(),
+		/** the known device's token hash when the attempt came from one (its failures count against it, not the address) */
+		device: text('device'),
 		succeeded: boolean('succeeded').notNull(),
 		createdAt: created()
 	},

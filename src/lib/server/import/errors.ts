@@ -7,6 +7,7 @@ export type ImportErrorCode =
 	| 'options_invalid'
 	| 'file_too_large'
 	| 'file_empty'
+	| 'too_many_rows'
 	| 'file_binary'
 	| 'no_header_no_mapping'
 	| 'column_missing'

@@ -110,7 +110,11 @@ function run(bytes: Uint8Array, opts: ImportOptions, ctx: ImportContext): Import
 	const headers = header ? all[0].cells : null;
 	const data = header ? all.slice(1) : all;
 	if (data.length === 0) throw new ImportError('file_empty', 'the file has a header row but no points', { field: 'file' });
-	const columns = resolveColumns(headers, opts.columns, Math.max(...all.map((r) => r.cells.length)));
+	if (data.length > IMPORT_LIMITS.maxRows)
+		throw new ImportError('too_many_rows', `the file has ${data.length} rows; a point list may have at most ${IMPORT_LIMITS.maxRows}`, { field: 'file' });
+	// a loop, not Math.max(...cells): spreading a long list as arguments overflows the call stack
+	const widest = all.reduce((max, r) => Math.max(max, r.cells.length), 0);
+	const columns = resolveColumns(headers, opts.columns, widest);
 	const decimalComma = decimalOf(opts, data, columns, delimiter);
 	const records = data.map((r) => readRecord(r, columns, decimalComma));
 	checkTargets(opts.names, 'names');

@@ -36,6 +36,7 @@ export async function createShare(event: Pick<RequestEvent, 'url'>, target: Shar
 		revisionId: target.revision.id,
 		tokenHash: hashToken(token),
 		note: input.note,
+		showRevisionNote: input.showRevisionNote,
 		expiresAt,
 		createdBy: actor.id
 	});

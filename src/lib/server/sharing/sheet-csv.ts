@@ -1,4 +1,5 @@
 // The share sheet's table as CSV (pure: no database), mm at 0.1 as on the sheet, ISO 8855 vehicle axes.
+import { toCsv } from '$lib/csv';
 
 export interface SheetRow {
 	name: string;
@@ -11,11 +12,6 @@ export interface SheetRow {
 	tolerance: { mm: number; mode: 'axis' | 'sphere' } | null;
 }
 
-/** A CSV field, quoted when it holds a delimiter, quote or line break. */
-function field(value: string) {
-	return /[",\n\r]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
-}
-
 /** mm at 0.1, as on the sheet, never "-0.0". */
 function tenth(v: number) {
 	const s = v.toFixed(1);
@@ -25,11 +21,10 @@ function tenth(v: number) {
 /** The sheet's table as CSV: point, x, y, z, the move from the baseline and the tolerance (mm, ISO 8855 axes). */
 export function sheetCsv(rows: SheetRow[], withTolerance: boolean) {
 	const head = ['point', 'description', 'x_mm', 'y_mm', 'z_mm', 'dx_mm', 'dy_mm', 'dz_mm', ...(withTolerance ? ['tolerance_mm', 'tolerance_mode'] : [])];
-	const lines = [head.join(',')];
-	for (const r of rows) {
+	const lines = rows.map((r) => {
 		const d = r.delta ? [r.delta.dx, r.delta.dy, r.delta.dz].map(tenth) : ['', '', ''];
 		const t = withTolerance ? (r.tolerance ? [String(Math.round(r.tolerance.mm * 100) / 100), r.tolerance.mode] : ['', '']) : [];
-		lines.push([field(r.name), field(r.label), ...r.xyz.map(tenth), ...d, ...t].join(','));
-	}
-	return lines.join('\r\n') + '\r\n';
+		return [r.name, r.label, ...r.xyz.map(tenth), ...d, ...t];
+	});
+	return toCsv([head, ...lines]);
 }

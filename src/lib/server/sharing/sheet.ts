@@ -3,7 +3,7 @@
 // (and its corner's baseline); nothing else of the team is read.
 import { error } from '@sveltejs/kit';
 import { POSITION_LABELS, KIND_LABELS } from '$lib/schemas/corner';
-import { cornerGeometrySchema, type CornerGeometry } from '$lib/schemas/geometry';
+import { cornerGeometrySchema, POINT_NAME, type CornerGeometry } from '$lib/schemas/geometry';
 import { pointsOfKind, type Kind } from '$lib/points';
 import { joinRocker } from '$lib/kinds';
 import { hashToken } from '$lib/server/auth/tokens';
@@ -72,18 +72,28 @@ function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: 
 	});
 }
 
-/** Everything the share page and its CSV show for an opened link. */
+/**
+ * A stored corner file read for the sheet. Points saved before point names were limited may have names the
+ * schema now refuses: those are shown as they are (the CSV neutralises them), the rest is parsed as usual.
+ */
+function storedGeometry(raw: unknown): CornerGeometry {
+	const points = Object.entries((raw as { points?: Record<string, [number, number, number]> }).points ?? {});
+	const geometry = cornerGeometrySchema.parse({ ...(raw as object), points: Object.fromEntries(points.filter(([n]) => POINT_NAME.test(n))) });
+	return { ...geometry, points: { ...geometry.points, ...Object.fromEntries(points.filter(([n]) => !POINT_NAME.test(n))) } };
+}
+
+/** Everything the share page and its CSV show for an opened link (the revision's internal note only when the link says so). */
 export async function sheetOf({ share, revision, corner, car }: Opened) {
-	const geometry = cornerGeometrySchema.parse(revision.geometry);
+	const geometry = storedGeometry(revision.geometry);
 	const isBaseline = corner.baselineRevisionId === revision.id;
 	const baselineRow = !isBaseline && corner.baselineRevisionId ? await revisionById(db, corner.baselineRevisionId) : null;
-	const baseline = baselineRow && baselineRow.cornerId === corner.id ? cornerGeometrySchema.parse(baselineRow.geometry) : null;
+	const baseline = baselineRow && baselineRow.cornerId === corner.id ? storedGeometry(baselineRow.geometry) : null;
 	const tolerances = await tolerancesForRevision(db, corner.id, revision.id);
 	return {
 		link: { note: share.note, expiresAt: share.expiresAt },
 		car: { name: car.name, series: car.series },
 		corner: { position: corner.position, label: POSITION_LABELS[corner.position] },
-		revision: { number: revision.number, label: revision.label, note: revision.note, createdAt: revision.createdAt, kind: revision.kind, kindLabel: KIND_LABELS[revision.kind] },
+		revision: { number: revision.number, label: revision.label, note: share.showRevisionNote ? revision.note : '', createdAt: revision.createdAt, kind: revision.kind, kindLabel: KIND_LABELS[revision.kind] },
 		baseline: isBaseline ? ('self' as const) : baselineRow && baseline ? { number: baselineRow.number, label: baselineRow.label } : null,
 		rows: rowsOf(geometry, baseline, tolerances),
 		hasTolerances: tolerances !== null,

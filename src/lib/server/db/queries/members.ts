@@ -1,6 +1,7 @@
 // A team's members and invitations. The team always keeps at least one owner.
 import { and, asc, desc, eq, gt, isNull, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
+import { revokeSessionsOfUser } from './sessions';
 
 /** A transaction handle (what db.transaction passes its callback). */
 type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
@@ -97,6 +98,8 @@ export function removeMember(db: Database, teamId: string, userId: string): Prom
 		if (!member) return { ok: false, reason: 'not_member' };
 		if (member.role === 'owner' && owners <= 1) return { ok: false, reason: 'last_owner' };
 		await tx.delete(memberships).where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)));
+		// a removed member's open pages end with their sessions: they sign in again to reach their other teams
+		await revokeSessionsOfUser(tx, userId);
 		return { ok: true, before: member.role };
 	});
 }

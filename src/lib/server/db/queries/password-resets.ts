@@ -1,6 +1,7 @@
 // One-time password-reset tokens (stored hashed).
 import { and, eq, gt, isNull, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
+import { revokeSessionsOfUser } from './sessions';
 import { passwordResets, users } from '../schema';
 
 /** Stores a reset token hash for a user. */
@@ -30,6 +31,8 @@ export function completePasswordReset(db: Database, resetId: string, userId: str
 		if (used.length === 0) return false;
 		await tx.update(passwordResets).set({ usedAt: sql`now()` }).where(and(eq(passwordResets.userId, userId), isNull(passwordResets.usedAt)));
 		await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+		// whoever held a session of the account (perhaps the reason for the reset) holds it no longer
+		await revokeSessionsOfUser(tx, userId);
 		return true;
 	});
 }

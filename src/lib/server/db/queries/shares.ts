@@ -8,6 +8,7 @@ export interface NewShareLink {
 	revisionId: string;
 	tokenHash: string;
 	note: string;
+	showRevisionNote: boolean;
 	expiresAt: Date;
 	createdBy: string;
 }
@@ -24,6 +25,7 @@ export function sharesOfRevision(db: Database, revisionId: string) {
 		.select({
 			id: shareLinks.id,
 			note: shareLinks.note,
+			showRevisionNote: shareLinks.showRevisionNote,
 			createdAt: shareLinks.createdAt,
 			expiresAt: shareLinks.expiresAt,
 			revokedAt: shareLinks.revokedAt,

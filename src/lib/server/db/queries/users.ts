@@ -1,7 +1,7 @@
 // Users, teams and memberships.
 import { and, asc, eq, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
-import { apiTokens, memberships, teams, users, type Role } from '../schema';
+import { apiTokens, memberships, sessions, teams, users, type Role } from '../schema';
 
 export interface TeamRole {
 	id: string;
@@ -27,15 +27,24 @@ export async function findUserById(db: Database, id: string) {
 
 /**
  * The account with this id (without its password hash) and its teams by name, in one statement: every
- * request reads both, and one round trip to the database is a millisecond or two less than two.
+ * request reads both, and one round trip to the database is a millisecond or two less than two. With a
+ * session id, the same statement also requires that session of this account to be open (not revoked, not
+ * expired), so a revoked session is refused on its next request.
  */
-export async function accountWithTeams(db: Database, id: string): Promise<{ user: { id: string; email: string; name: string } | null; teams: TeamRole[] }> {
+export async function accountWithTeams(
+	db: Database,
+	id: string,
+	sessionId?: string
+): Promise<{ user: { id: string; email: string; name: string } | null; teams: TeamRole[] }> {
+	const open = sessionId
+		? sql`exists (select 1 from ${sessions} where ${sessions.id} = ${sessionId} and ${sessions.userId} = ${users.id} and ${sessions.revokedAt} is null and ${sessions.expiresAt} > now())`
+		: sql`true`;
 	const rows = await db
 		.select({ id: users.id, email: users.email, name: users.name, teamId: teams.id, teamName: teams.name, role: memberships.role })
 		.from(users)
 		.leftJoin(memberships, eq(memberships.userId, users.id))
 		.leftJoin(teams, eq(teams.id, memberships.teamId))
-		.where(eq(users.id, id))
+		.where(and(eq(users.id, id), open))
 		.orderBy(asc(teams.name));
 	if (rows.length === 0) return { user: null, teams: [] };
 	const { email, name } = rows[0];

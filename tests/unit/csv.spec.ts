@@ -1,0 +1,42 @@
+// The app's one CSV writer: formula cells neutralised as OWASP's CSV-injection guidance says
+// (https://owasp.org/www-community/attacks/CSV_Injection: cells beginning with = + - @ tab or carriage return
+// get a leading single quote and are quoted), numbers left as numbers.
+import Papa from 'papaparse';
+import { describe, expect, test } from 'vitest';
+import { toCsv } from '../../src/lib/csv';
+import { buildCsv } from '../../src/lib/components/charts/chart-csv';
+import { sheetCsv } from '../../src/lib/server/sharing/sheet-csv';
+import { pointsCsv } from '../../src/lib/server/corners/present';
+
+const PAYLOADS = ["=cmd|' /C calc'!A0", '+1+1', '-2+3', '@SUM(A1)', '=HYPERLINK("http://x.example","x")', '\t=1+1', '\r=1+1'];
+
+/** The cells of a CSV text as a spreadsheet would read them (papaparse's reader). */
+function cells(text: string): string[][] {
+	return Papa.parse<string[]>(text.trimEnd(), { delimiter: ',', newline: '\r\n' }).data;
+}
+
+/** True when a cell would start a formula per OWASP's list. */
+const formula = (cell: string) => /^[=+\-@\t\r]/.test(cell) && !/^[+-]?\d+(\.\d+)?$/.test(cell);
+
+describe('toCsv (OWASP CSV injection)', () => {
+	test('every payload OWASP lists comes out as text starting with a quote mark, its content kept', () => {
+		const read = cells(toCsv(PAYLOADS.map((p) => [p, 1])));
+		expect(read.map((r) => r[0])).toEqual(PAYLOADS.map((p) => `'${p}`));
+		expect(read.flat().filter(formula)).toEqual([]);
+	});
+
+	test('numbers, negative ones included, stay numbers; ordinary text is unchanged', () => {
+		expect(toCsv([['lower.front', '-145.0', -0.5, '+3', '1e-7', 'a - b']])).toBe('lower.front,-145.0,-0.5,+3,1e-7,a - b\r\n');
+		expect(toCsv([['-1+1', '--1', '-1e']])).toBe(`"'-1+1","'--1","'-1e"\r\n`);
+	});
+
+	test('each CSV the app writes neutralises a formula name: share sheet, revision export, chart download', () => {
+		const name = PAYLOADS[0];
+		const sheet = sheetCsv([{ name, label: '@label', xyz: [-1, 2, 3], delta: null, tolerance: null }], false);
+		const exported = pointsCsv({ points: { [name]: [-1, 2, 3] } });
+		const chart = buildCsv({ xLabel: 'Travel', xUnit: 'mm', yLabel: 'Toe', yUnit: '°', series: [{ id: 'a', label: '=1+1', points: [{ x: -1, y: -0.5 }] }] });
+		for (const text of [sheet, exported, chart]) expect(cells(text).flat().filter(formula)).toEqual([]);
+		expect(cells(exported)[1]).toEqual([`'${name}`, '-1', '2', '3']);
+		expect(cells(chart)[1]).toEqual(['-1', '-0.5']);
+	});
+});
