@@ -55,7 +55,9 @@ export const doubleWishbone: KindSpec = {
 			'spring.body': [-5, 600, 150]
 		},
 		spring_on: 'lower',
-		tyre: { loaded_radius: 290 }
+		tyre: { loaded_radius: 290 },
+		// invented: a pushrod to a rocker on the chassis, the spring lying across the car
+		rocker: { points: { 'rocker.pivot_a': [25, 345, 470], 'rocker.pivot_b': [-25, 345, 470], 'rocker.rod_end': [0, 425, 540], 'rocker.spring_end': [0, 295, 540], 'rocker.rod_outer': [0, 655, 135] }, rod_on: 'lower', spring_chassis: [0, 85, 390] }
 	}
 };
 

@@ -90,13 +90,19 @@ export function joinRocker(points: Record<string, P>, rocker: Record<string, unk
  * A kind's template placed for a corner: mirrored to the right side when `position` is a right corner,
  * and moved along x so its wheel centre sits on the front axle (x = 0) or the rear (x = −wheelbase).
  */
-export function templateFor(kind: string, position: string, wheelbase: number | null) {
+export function templateFor(kind: string, position: string, wheelbase: number | null, rocker = false) {
 	const t = kindSpec(kind).template;
 	const rear = position.startsWith('rear');
 	const right = position.endsWith('right');
 	const w = t.points['wheel.centre'];
 	const dx = (rear ? -(wheelbase ?? 2600) : 0) - w[0];
 	const move = (p: P): P => [Math.round((p[0] + dx) * 1000) / 1000, right ? -p[1] : p[1], p[2]];
-	const points = Object.fromEntries(Object.entries(t.points).map(([k, p]) => [k, move(p)])) as Record<string, P>;
-	return { kind, points, spring_on: t.spring_on, tyre: { ...t.tyre } };
+	const withRocker = rocker && !!t.rocker;
+	const source: Record<string, P> = withRocker ? { ...t.points, ...t.rocker!.points, 'spring.chassis': t.rocker!.spring_chassis } : t.points;
+	const points = Object.fromEntries(
+		Object.entries(source)
+			.filter(([k]) => !withRocker || k !== 'spring.body')
+			.map(([k, p]) => [k, move(p)])
+	) as Record<string, P>;
+	return { kind, points, spring_on: t.spring_on, rod_on: withRocker ? t.rocker!.rod_on : null, tyre: { ...t.tyre } };
 }

@@ -65,6 +65,8 @@ export const multiLink: KindSpec = {
 			'spring.body': [-2705, 540, 150]
 		},
 		spring_on: 'upright',
-		tyre: { loaded_radius: 280 }
+		tyre: { loaded_radius: 280 },
+		// invented: a pushrod to a rocker on the chassis, the spring lying across the car
+		rocker: { points: { 'rocker.pivot_a': [-2675, 260, 470], 'rocker.pivot_b': [-2725, 260, 470], 'rocker.rod_end': [-2700, 340, 540], 'rocker.spring_end': [-2700, 210, 540], 'rocker.rod_outer': [-2700, 560, 160] }, rod_on: 'upright', spring_chassis: [-2700, 0, 390] }
 	}
 };

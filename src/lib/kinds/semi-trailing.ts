@@ -38,6 +38,8 @@ export const semiTrailing: KindSpec = {
 			'spring.body': [-2500, 580, 250]
 		},
 		spring_on: 'arm',
-		tyre: { loaded_radius: 300 }
+		tyre: { loaded_radius: 300 },
+		// invented: a pushrod to a rocker on the chassis, the spring lying across the car
+		rocker: { points: { 'rocker.pivot_a': [-2475, 360, 500], 'rocker.pivot_b': [-2525, 360, 500], 'rocker.rod_end': [-2500, 440, 570], 'rocker.spring_end': [-2500, 310, 570], 'rocker.rod_outer': [-2500, 620, 260] }, rod_on: 'arm', spring_chassis: [-2500, 100, 420] }
 	}
 };

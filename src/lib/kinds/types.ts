@@ -66,6 +66,8 @@ export interface KindSpec {
 		points: Record<string, [number, number, number]>;
 		spring_on?: string;
 		tyre: { loaded_radius: number };
+		/** a pushrod or pullrod rocker for this template (kinds that take one): its points under their table names, the rod's body, and the spring's chassis end it then uses */
+		rocker?: { points: Record<string, [number, number, number]>; rod_on: BodyName; spring_chassis: [number, number, number] };
 	};
 }
 

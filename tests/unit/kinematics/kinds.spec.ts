@@ -3,7 +3,7 @@
 // constructions made here, independently of the engine's chains.
 
 import { describe, expect, it } from 'vitest';
-import { kindSpec } from '../../../src/lib/kinds';
+import { kindSpec, splitRocker, templateFor } from '../../../src/lib/kinds';
 import { parseCornerGeometry } from '../../../src/lib/schemas/geometry';
 import { CornerGeometryError, solveSweep, SweepOptionsError, type CornerInput, type Sample, type SweepKind } from '../../../src/lib/server/kinematics/index';
 import { clone, DEG, fixture } from './helpers';
@@ -300,6 +300,26 @@ describe('every kind\'s template solves over ±60 mm of heave and ±3° of roll'
 			expect(v.ok ? '' : v.message).toBe('');
 			expect(solveSweep(c, { sweep: 'heave', from: -60, to: 60, step: 5 }).error).toBeNull();
 			expect(solveSweep(c, { sweep: 'roll', from: -3, to: 3, step: 0.5 }).error).toBeNull();
+		});
+	}
+});
+
+describe('templates placed for a corner', () => {
+	for (const kind of ['double_wishbone', 'multi_link', 'semi_trailing']) {
+		it(`${kind}: with its rocker, on the rear right of a 2500 mm car, it is valid and solves; mirrored and moved as asked`, () => {
+			const t = templateFor(kind, 'rear_right', 2500, true);
+			expect(t.points['wheel.centre'][0]).toBe(-2500);
+			expect(t.points['wheel.centre'][1]).toBeLessThan(0);
+			const { points, rocker } = splitRocker(t.points, t.rod_on);
+			const file = { format: 'corner-geometry/1', kind, points, rocker, tyre: t.tyre };
+			const v = parseCornerGeometry(file);
+			expect(v.ok ? '' : v.message).toBe('');
+			const r = solveSweep(file as CornerInput, { sweep: 'heave', from: -50, to: 50, step: 10 });
+			expect(r.error).toBeNull();
+			for (const s of r.samples) {
+				expect(s.motion_ratio).toBeGreaterThan(0.3);
+				expect(s.motion_ratio).toBeLessThan(1);
+			}
 		});
 	}
 });
