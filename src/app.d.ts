@@ -12,6 +12,8 @@ declare global {
 			user: { id: string; email: string; name: string } | null;
 			teams: TeamRole[];
 			team: TeamRole | null;
+			/** Set by handleError when the database could not be reached: the answer becomes a 503. */
+			unavailable?: boolean;
 		}
 		interface PageData {
 			user?: { id: string; email: string; name: string } | null;

@@ -1,7 +1,7 @@
 // The app's rate limits (counted in PostgreSQL through queries/rate-limits.ts). Common-practice figures, no source.
 import { error } from '@sveltejs/kit';
 import { db } from '$lib/server/db';
-import { takeRate } from '$lib/server/db/queries/rate-limits';
+import { takeRate, takeRateUnlocked } from '$lib/server/db/queries/rate-limits';
 
 export const LIMITS = {
 	/** opening one share link (page or CSV) from one client address */
@@ -24,4 +24,10 @@ export function allow(limit: LimitName, key: string): Promise<boolean> {
 /** Stops with 429 when the limit is reached. */
 export async function requireRate(limit: LimitName, key: string, message: string) {
 	if (!(await allow(limit, key))) error(429, { message, code: 'rate_limited' });
+}
+
+/** As allow, in one statement without a lock (the share sheet's hot path; see takeRateUnlocked). */
+export function allowUnlocked(limit: LimitName, key: string): Promise<boolean> {
+	const { windowMs, max } = LIMITS[limit];
+	return takeRateUnlocked(db, limit, key, windowMs, max);
 }

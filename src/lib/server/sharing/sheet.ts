@@ -1,6 +1,7 @@
 // What a share link shows: the shared revision's coordinate table (0.1 mm), what moved from the baseline,
 // the adopted tolerances and the solved positions for the 3-D view. Everything comes from the one shared revision
 // (and its corner's baseline); nothing else of the team is read.
+import { createHash } from 'node:crypto';
 import { error } from '@sveltejs/kit';
 import { POSITION_LABELS, KIND_LABELS } from '$lib/schemas/corner';
 import { cornerGeometrySchema, type CornerGeometry } from '$lib/schemas/geometry';
@@ -9,20 +10,19 @@ import { hashToken } from '$lib/server/auth/tokens';
 import { movedPoints } from '$lib/server/corners/compare';
 import { solveCorner } from '$lib/server/corners/solve';
 import { db } from '$lib/server/db';
-import { recordAudit } from '$lib/server/db/queries/audit';
-import { markShareOpened, revisionById, shareByTokenHash } from '$lib/server/db/queries/shares';
+import { revisionById, shareByTokenHash } from '$lib/server/db/queries/shares';
 import { tolerancesForRevision, type AdoptedTolerances } from '$lib/server/db/queries/tolerances';
-import { allow } from '$lib/server/rate-limit';
+import { allowUnlocked } from '$lib/server/rate-limit';
+import { recordShareOpen } from './opens';
 import type { SheetRow } from './sheet-csv';
 
 export { sheetCsv, type SheetRow } from './sheet-csv';
+export { OPENED_AUDIT_GAP_MS } from './opens';
 
-/** An "opened" audit event at most once per link in this period, so refreshing the page does not flood the log. */
-export const OPENED_AUDIT_GAP_MS = 30 * 60 * 1000;
 /** The sweep drawn in the 3-D view (mm of wheel travel). */
 export const SHARE_SWEEP = { sweep: 'heave' as const, from: -50, to: 50, step: 5, points: true };
 
-type Opened = NonNullable<Awaited<ReturnType<typeof shareByTokenHash>>>;
+export type Opened = NonNullable<Awaited<ReturnType<typeof shareByTokenHash>>>;
 
 /**
  * The link behind a token, counted as opened unless count is false (the CSV download): 404 when unknown or
@@ -34,24 +34,49 @@ export async function openShare(token: string, clientAddress: string, { count = 
 	if (found.share.expiresAt.getTime() <= Date.now()) {
 		error(410, { message: 'This link has expired. Ask the person who sent it for a new one.', code: 'expired' });
 	}
-	if (!(await allow('shareOpen', `${found.share.id}:${clientAddress}`))) {
+	if (!(await allowUnlocked('shareOpen', `${found.share.id}:${clientAddress}`))) {
 		error(429, { message: 'This link was opened too often in a short time. Wait a few minutes and reload.', code: 'rate_limited' });
 	}
-	if (!count) return found;
-	const before = await markShareOpened(db, found.share.id);
-	if (!before || Date.now() - before.getTime() > OPENED_AUDIT_GAP_MS) {
-		await recordAudit(db, {
-			teamId: found.share.teamId,
-			actorId: null,
-			action: 'share.opened',
-			subjectType: 'share_link',
-			subjectId: found.share.id,
-			detail: { revisionId: found.revision.id, revision: found.revision.number, car: found.car.name, corner: found.corner.position }
-		});
+	if (count) {
+		const { revision, car, corner } = found;
+		recordShareOpen(found.share.id, found.share.teamId, { revisionId: revision.id, revision: revision.number, car: car.name, corner: corner.position });
 	}
 	return found;
 }
 
+/** The link's settings that change what its sheet shows (everything but its counters), for cache keys. */
+function settingsOf(share: Opened['share']) {
+	const { openCount: _c, lastOpenedAt: _l, ...settings } = share;
+	return settings;
+}
+
+/**
+ * A version key of what an opened link shows: the link's settings, its revision (immutable), the corner's
+ * baseline (immutable once written; the pointer may move) and the adopted tolerances (read anew each time).
+ */
+export async function sheetVersion(opened: Opened) {
+	const tolerances = await tolerancesForRevision(db, opened.corner.id, opened.revision.id);
+	const key = JSON.stringify([settingsOf(opened.share), opened.revision.id, opened.corner.baselineRevisionId, tolerances]);
+	return { key: createHash('sha256').update(key).digest('base64url').slice(0, 27), tolerances };
+}
+
+type Sheet = Awaited<ReturnType<typeof buildSheet>> & { frames: ReturnType<typeof framesOf> };
+/** Sheets already built, by version key (a few hundred at most; the oldest go first). */
+const built = new Map<string, Promise<Sheet>>();
+const BUILT_MAX = 300;
+
+/** The sheet of an opened link with its solved frames, built once per version and kept in memory. */
+export async function cachedSheet(opened: Opened): Promise<Sheet & { version: string }> {
+	const { key, tolerances } = await sheetVersion(opened);
+	let entry = built.get(key);
+	if (!entry) {
+		entry = buildSheet(opened, tolerances).then((sheet) => ({ ...sheet, frames: framesOf(sheet.geometry) }));
+		built.set(key, entry);
+		entry.catch(() => built.delete(key));
+		while (built.size > BUILT_MAX) built.delete(built.keys().next().value!);
+	}
+	return { ...(await entry), version: key };
+}
 
 /** The table rows in the kind's point order, then any other points of the file. */
 function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: AdoptedTolerances | null): SheetRow[] {
@@ -71,12 +96,15 @@ function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: 
 }
 
 /** Everything the share page and its CSV show for an opened link. */
-export async function sheetOf({ share, revision, corner, car }: Opened) {
+export async function sheetOf(opened: Opened) {
+	return buildSheet(opened, await tolerancesForRevision(db, opened.corner.id, opened.revision.id));
+}
+
+async function buildSheet({ share, revision, corner, car }: Opened, tolerances: AdoptedTolerances | null) {
 	const geometry = cornerGeometrySchema.parse(revision.geometry);
 	const isBaseline = corner.baselineRevisionId === revision.id;
 	const baselineRow = !isBaseline && corner.baselineRevisionId ? await revisionById(db, corner.baselineRevisionId) : null;
 	const baseline = baselineRow && baselineRow.cornerId === corner.id ? cornerGeometrySchema.parse(baselineRow.geometry) : null;
-	const tolerances = await tolerancesForRevision(db, corner.id, revision.id);
 	return {
 		link: { note: share.note, expiresAt: share.expiresAt },
 		car: { name: car.name, series: car.series },
