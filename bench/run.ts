@@ -4,6 +4,7 @@
 import * as fixSearch from './fix-search';
 import * as kinematics from './kinematics';
 import * as sharing from './sharing';
+import * as shareLoad from './share-load';
 import * as tolerance from './tolerance';
 import * as workspace from './workspace';
 
@@ -17,7 +18,8 @@ const BENCHES: [string, Bench][] = [
 	['fix-search', fixSearch],
 	['tolerance', tolerance],
 	['workspace', workspace],
-	['sharing', sharing]
+	['sharing', sharing],
+	['share-load', shareLoad]
 ];
 
 // `npm run bench -- workspace sharing` runs the named parts only.

@@ -4,8 +4,7 @@
 import { building } from '$app/environment';
 import { db } from '$lib/server/db';
 import { addShareOpens, type ShareOpenBatch } from '$lib/server/db/queries/shares';
-import { sweepRate } from '$lib/server/db/queries/rate-limits';
-import { LIMITS } from '$lib/server/rate-limit';
+import { sweepLocal } from '$lib/server/rate-limit';
 
 /** An "opened" audit event at most once per link in this period, so refreshing the page does not flood the log. */
 export const OPENED_AUDIT_GAP_MS = 30 * 60 * 1000;
@@ -61,7 +60,7 @@ let sweeps = 0;
 if (!building) {
 	setInterval(() => {
 		flushShareOpens().catch((e) => console.error(`share openings kept for the next flush: ${(e as Error).message}`));
-		// The unlocked share-open counter leaves old events behind: sweep them about once a minute.
-		if (++sweeps % 20 === 0) sweepRate(db, 'shareOpen', LIMITS.shareOpen.windowMs).catch(() => {});
+		// The in-memory share-open limit keeps a log per reader: drop the finished ones about once a minute.
+		if (++sweeps % 20 === 0) sweepLocal();
 	}, FLUSH_MS).unref();
 }

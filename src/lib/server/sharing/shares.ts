@@ -1,6 +1,7 @@
 // Creating, listing and revoking share links, and mailing them. Callers have checked the 'share' permission.
 import type { RequestEvent } from '@sveltejs/kit';
 import { flushShareOpens, pendingOpens } from './opens';
+import { forgetShare } from './sheet';
 import type { CreateShareInput } from '$lib/schemas/share';
 import { POSITION_LABELS } from '$lib/schemas/corner';
 import { hashToken, newToken } from '$lib/server/auth/tokens';
@@ -108,6 +109,7 @@ export async function revokeShare(link: ShareLink, actorId: string) {
 	// The link's pending openings (and their audit event) are written before it stops.
 	await flushShareOpens();
 	const revoked = await revokeShareLink(db, link.id);
+	forgetShare(link.tokenHash);
 	if (!revoked) return false;
 	await recordAudit(db, {
 		teamId: link.teamId,

@@ -10,9 +10,9 @@ import { hashToken } from '$lib/server/auth/tokens';
 import { movedPoints } from '$lib/server/corners/compare';
 import { solveCorner } from '$lib/server/corners/solve';
 import { db } from '$lib/server/db';
-import { revisionById, shareByTokenHash } from '$lib/server/db/queries/shares';
-import { tolerancesForRevision, type AdoptedTolerances } from '$lib/server/db/queries/tolerances';
-import { allowUnlocked } from '$lib/server/rate-limit';
+import { revisionById, shareToOpen } from '$lib/server/db/queries/shares';
+import { latestTolerances, type AdoptedTolerances } from '$lib/server/db/queries/tolerances';
+import { allowLocal } from '$lib/server/rate-limit';
 import { recordShareOpen } from './opens';
 import type { SheetRow } from './sheet-csv';
 
@@ -22,19 +22,43 @@ export { OPENED_AUDIT_GAP_MS } from './opens';
 /** The sweep drawn in the 3-D view (mm of wheel travel). */
 export const SHARE_SWEEP = { sweep: 'heave' as const, from: -50, to: 50, step: 5, points: true };
 
-export type Opened = NonNullable<Awaited<ReturnType<typeof shareByTokenHash>>>;
+export type Opened = NonNullable<Awaited<ReturnType<typeof shareToOpen>>>;
+
+/**
+ * Link lookups of the last LOOKUP_TTL_MS by token hash, so a burst of readers of one link costs one query.
+ * Revoking in this process drops the entry at once (`forgetShare`); another app instance sees a revocation, a
+ * moved baseline or newly adopted tolerances within LOOKUP_TTL_MS. Expiry is checked against the clock each time.
+ */
+const LOOKUP_TTL_MS = 1000;
+const lookups = new Map<string, { at: number; row: Promise<Opened | null> }>();
+
+async function lookUp(tokenHash: string): Promise<Opened | null> {
+	const now = Date.now();
+	const hit = lookups.get(tokenHash);
+	if (hit && now - hit.at < LOOKUP_TTL_MS) return hit.row;
+	const row = shareToOpen(db, tokenHash);
+	lookups.set(tokenHash, { at: now, row });
+	row.catch(() => lookups.delete(tokenHash));
+	if (lookups.size > 1000) for (const [k, v] of lookups) if (now - v.at >= LOOKUP_TTL_MS) lookups.delete(k);
+	return row;
+}
+
+/** Drops the cached lookup of a link (on revocation, so this process refuses it from the next request). */
+export function forgetShare(tokenHash: string) {
+	lookups.delete(tokenHash);
+}
 
 /**
  * The link behind a token, counted as opened unless count is false (the CSV download): 404 when unknown or
  * revoked, 410 when expired, 429 when one client opens it too often.
  */
 export async function openShare(token: string, clientAddress: string, { count = true } = {}): Promise<Opened> {
-	const found = await shareByTokenHash(db, hashToken(token));
+	const found = await lookUp(hashToken(token));
 	if (!found || found.share.revokedAt) error(404, { message: 'This link does not exist or was revoked.', code: 'not_found' });
 	if (found.share.expiresAt.getTime() <= Date.now()) {
 		error(410, { message: 'This link has expired. Ask the person who sent it for a new one.', code: 'expired' });
 	}
-	if (!(await allowUnlocked('shareOpen', `${found.share.id}:${clientAddress}`))) {
+	if (!(allowLocal('shareOpen', `${found.share.id}:${clientAddress}`))) {
 		error(429, { message: 'This link was opened too often in a short time. Wait a few minutes and reload.', code: 'rate_limited' });
 	}
 	if (count) {
@@ -54,8 +78,8 @@ function settingsOf(share: Opened['share']) {
  * A version key of what an opened link shows: the link's settings, its revision (immutable), the corner's
  * baseline (immutable once written; the pointer may move) and the adopted tolerances (read anew each time).
  */
-export async function sheetVersion(opened: Opened) {
-	const tolerances = await tolerancesForRevision(db, opened.corner.id, opened.revision.id);
+export function sheetVersion(opened: Opened) {
+	const tolerances = latestTolerances(opened.tolerances);
 	const key = JSON.stringify([settingsOf(opened.share), opened.revision.id, opened.corner.baselineRevisionId, tolerances]);
 	return { key: createHash('sha256').update(key).digest('base64url').slice(0, 27), tolerances };
 }
@@ -67,7 +91,7 @@ const BUILT_MAX = 300;
 
 /** The sheet of an opened link with its solved frames, built once per version and kept in memory. */
 export async function cachedSheet(opened: Opened): Promise<Sheet & { version: string }> {
-	const { key, tolerances } = await sheetVersion(opened);
+	const { key, tolerances } = sheetVersion(opened);
 	let entry = built.get(key);
 	if (!entry) {
 		entry = buildSheet(opened, tolerances).then((sheet) => ({ ...sheet, frames: framesOf(sheet.geometry) }));
@@ -97,11 +121,12 @@ function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: 
 
 /** Everything the share page and its CSV show for an opened link. */
 export async function sheetOf(opened: Opened) {
-	return buildSheet(opened, await tolerancesForRevision(db, opened.corner.id, opened.revision.id));
+	return buildSheet(opened, latestTolerances(opened.tolerances));
 }
 
 async function buildSheet({ share, revision, corner, car }: Opened, tolerances: AdoptedTolerances | null) {
-	const geometry = cornerGeometrySchema.parse(revision.geometry);
+	const full = await revisionById(db, revision.id);
+	const geometry = cornerGeometrySchema.parse(full!.geometry);
 	const isBaseline = corner.baselineRevisionId === revision.id;
 	const baselineRow = !isBaseline && corner.baselineRevisionId ? await revisionById(db, corner.baselineRevisionId) : null;
 	const baseline = baselineRow && baselineRow.cornerId === corner.id ? cornerGeometrySchema.parse(baselineRow.geometry) : null;

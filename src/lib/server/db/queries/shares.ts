@@ -1,5 +1,6 @@
 // Share links: read-only links to one revision for people without an account. Only the token's hash is stored.
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, sql } from 'drizzle-orm';
+import { tolerancesOfRevisionSql } from './tolerances';
 import type { Database } from '../connect';
 import { auditEvents, cars, corners, memberships, revisions, shareLinks, users } from '../schema';
 
@@ -62,6 +63,25 @@ export async function revokeShareLink(db: Database, shareId: string) {
 export async function shareByTokenHash(db: Database, tokenHash: string) {
 	const [row] = await db
 		.select({ share: shareLinks, revision: revisions, corner: corners, car: cars })
+		.from(shareLinks)
+		.innerJoin(revisions, eq(revisions.id, shareLinks.revisionId))
+		.innerJoin(corners, eq(corners.id, revisions.cornerId))
+		.innerJoin(cars, and(eq(cars.id, corners.carId), eq(cars.teamId, shareLinks.teamId)))
+		.where(and(eq(shareLinks.tokenHash, tokenHash), eq(shareLinks.scope, 'revision')))
+		.limit(1);
+	return row ?? null;
+}
+
+/** The revision's columns but its geometry (the sheet reads that once per revision, see revisionById). */
+const { geometry: _geometry, ...revisionSummary } = getTableColumns(revisions);
+
+/**
+ * What opening a link needs in one round trip: the link, its revision (without the geometry), corner and car,
+ * and the adopted tolerances of that revision (raw; pick with latestTolerances). Null for an unknown token.
+ */
+export async function shareToOpen(db: Database, tokenHash: string) {
+	const [row] = await db
+		.select({ share: shareLinks, revision: revisionSummary, corner: corners, car: cars, tolerances: tolerancesOfRevisionSql(corners.id, revisions.id) })
 		.from(shareLinks)
 		.innerJoin(revisions, eq(revisions.id, shareLinks.revisionId))
 		.innerJoin(corners, eq(corners.id, revisions.cornerId))

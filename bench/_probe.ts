@@ -1,0 +1,11 @@
+import { readers, report, shareLink } from '/work/wt-15/bench/share-load';
+import { startTestMailServer, startTestServer } from '/work/wt-15/scripts/test-server.mjs';
+import { waitForHttp } from '/work/wt-15/scripts/setup.mjs';
+const port = 3375; const base = `http://127.0.0.1:${port}`;
+const mail = await startTestMailServer(); const server = startTestServer(port);
+await waitForHttp(`${base}/signin`);
+const { url } = await shareLink(base); const path = new URL(url).pathname;
+report('1 reader revalidate', await readers(base + path, { revalidate: true, firstAddress: 2, count: 1, opens: 50 }));
+report('1 reader full', await readers(base + path, { revalidate: false, firstAddress: 3, count: 1, opens: 50 }));
+report('20 readers revalidate', await readers(base + path, { revalidate: true, firstAddress: 10, count: 20, opens: 10 }));
+server.kill('SIGKILL'); await mail.close();
