@@ -1,6 +1,7 @@
 // Headers, the API's error shape, outage answers and API clients without a browser, against the built app.
 // A second app instance runs behind a TCP relay to PostgreSQL that the test can cut, black-hole and restore
-// (the shared test database itself is never stopped), with ORIGIN set to https for the Secure-cookie rule.
+// (the shared test database itself is never stopped), with ORIGIN set to https for the Secure-cookie rule and
+// demo mode off.
 import net from 'node:net';
 import type { ChildProcess } from 'node:child_process';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
@@ -195,7 +196,7 @@ describe('outage answers: 503 with Retry-After, /healthz, reconnection (RFC 9110
 		const { spawn } = await import('node:child_process');
 		const { appEnv } = await import('../../scripts/setup.mjs');
 		app = spawn('node', ['build'], {
-			env: { ...process.env, ...appEnv({ databaseUrl: url.toString(), port, smtpPort: Number(process.env.LW_SMTP_PORT ?? 2526) }), ORIGIN: origin, LW_DEMO: 'true' },
+			env: { ...process.env, ...appEnv({ databaseUrl: url.toString(), port, smtpPort: Number(process.env.LW_SMTP_PORT ?? 2526) }), ORIGIN: origin, LW_DEMO: 'false' },
 			stdio: ['ignore', 'ignore', 'ignore']
 		});
 		await waitForHttp(`${base}/signin`);
@@ -229,6 +230,12 @@ describe('outage answers: 503 with Retry-After, /healthz, reconnection (RFC 9110
 		const cookies = renewed.headers.getSetCookie().filter((c) => c.includes('authjs.session-token'));
 		expect(cookies.length).toBeGreaterThan(0);
 		for (const c of cookies) expect(c).not.toMatch(/;\s*Secure/i);
+	});
+
+	test('outside demo mode the /dev pages are 404 (issue 20, item 1)', async () => {
+		for (const p of ['/dev/charts', '/dev/linkage', '/dev/mail', '/dev/mail/messages.json']) {
+			expect((await fetch(base + p)).status, p).toBe(404);
+		}
 	});
 
 	test('healthy: /healthz says app and database are up', async () => {
