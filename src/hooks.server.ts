@@ -8,7 +8,7 @@ import { serverEnv } from '$lib/server/env';
 import { errorResponse } from '$lib/server/api';
 import { isCrossSiteForm } from '$lib/server/http/csrf';
 import { withSecurityHeaders } from '$lib/server/http/headers';
-import { RETRY_AFTER_S, UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from '$lib/server/http/outage';
+import { RETRY_AFTER_S, UNAVAILABLE_MESSAGE, isDatabaseUnavailable, logUnavailable } from '$lib/server/http/outage';
 import { serveShareSheet } from '$lib/server/sharing/sheet-cache';
 
 const isApi = (event: RequestEvent) => event.url.pathname === '/api' || event.url.pathname.startsWith('/api/');
@@ -80,7 +80,7 @@ const guard: Handle = async ({ event, resolve }) => {
 		}
 	} catch (e) {
 		if (!isDatabaseUnavailable(e)) throw e;
-		console.error(`database unavailable: ${(e as Error).message}`);
+		logUnavailable(e);
 		response = unavailable(event);
 	}
 	return withSecurityHeaders(event, response);
@@ -96,7 +96,7 @@ export const handle = sequence(guard, authHandle, accountHandle);
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (isDatabaseUnavailable(error)) {
 		event.locals.unavailable = true;
-		console.error(`database unavailable: ${(error as Error).message}`);
+		logUnavailable(error);
 		return { message: UNAVAILABLE_MESSAGE, code: 'unavailable' };
 	}
 	if (status >= 500) console.error(error);

@@ -36,3 +36,25 @@ export function isDatabaseUnavailable(e: unknown): boolean {
 	}
 	return false;
 }
+
+/** The innermost cause's message (the driver's or the socket's, without the failed query's text). */
+function rootMessage(e: unknown): string {
+	let cur = e;
+	for (let depth = 0; depth < 6 && cur && typeof cur === 'object' && (cur as { cause?: unknown }).cause; depth++) cur = (cur as { cause: unknown }).cause;
+	const err = cur as { code?: string; message?: string };
+	return [err?.code, err?.message].filter(Boolean).join(' ') || String(e);
+}
+
+let lastLog = 0;
+let quiet = 0;
+/** Logs an outage at most once per RETRY_AFTER_S seconds, with how many failures were not logged. */
+export function logUnavailable(e: unknown) {
+	const now = Date.now();
+	if (now - lastLog < RETRY_AFTER_S * 1000) {
+		quiet++;
+		return;
+	}
+	console.error(`database unavailable: ${rootMessage(e)}${quiet ? ` (and ${quiet} more failures since the last message)` : ''}`);
+	lastLog = now;
+	quiet = 0;
+}
