@@ -109,7 +109,7 @@ async function main() {
 		check(numbers.every((n, i) => n === i + 1), `the corner's ${numbers.length} revisions are numbered 1…${numbers.length} without gaps`);
 
 		console.log(`\n== 4. PostgreSQL stopped ${DOWN_AFTER_MS / 1000} s into ${OUTAGE_WRITERS} writers, started ${DOWN_FOR_MS / 1000} s later`);
-		const outage = { acked: [] as { id: string; number: number }[], unavailable: 0, unavailableMs: [] as number[], other: new Map<number, number>(), downAt: 0, upAt: 0, firstOkAfterUp: 0 };
+		const outage = { acked: [] as { id: string; number: number }[], unavailable: 0, unavailableMs: [] as number[], slow: [] as string[], other: new Map<number, number>(), downAt: 0, upAt: 0, firstOkAfterUp: 0 };
 		let running = true;
 		const writers = Array.from({ length: OUTAGE_WRITERS }, async (_, w) => {
 			for (let i = 0; running; i++) {
@@ -128,17 +128,22 @@ async function main() {
 				if (status === 503) {
 					outage.unavailable++;
 					outage.unavailableMs.push(performance.now() - t0);
+					if (performance.now() - t0 > 1000 && outage.downAt) outage.slow.push(`${((t0 - outage.downAt) / 1000).toFixed(1)}→${((performance.now() - outage.downAt) / 1000).toFixed(1)} s`);
 				}
 				else if (status !== 201) outage.other.set(status, (outage.other.get(status) ?? 0) + 1);
 				if (status !== 201) await new Promise((r) => setTimeout(r, 100));
 			}
 		});
 		await new Promise((r) => setTimeout(r, DOWN_AFTER_MS));
+		const stopAt = performance.now();
+		outage.downAt = stopAt;
 		await db('stop');
-		outage.downAt = performance.now();
+		console.log(`  \`db stop\` took ${Math.round(performance.now() - stopAt)} ms`);
+		const downAt = performance.now();
 		await new Promise((r) => setTimeout(r, DOWN_FOR_MS));
 		await db('start');
 		outage.upAt = performance.now();
+		console.log(`  \`db start\` returned ${((outage.upAt - downAt) / 1000).toFixed(1)} s after the stop completed`);
 		await new Promise((r) => setTimeout(r, AFTER_UP_MS));
 		running = false;
 		await Promise.all(writers);
@@ -154,6 +159,7 @@ async function main() {
 				`first write after the restart ${outage.firstOkAfterUp ? `${Math.round(outage.firstOkAfterUp - outage.upAt)} ms after \`db start\` returned` : 'none'}`
 		);
 		outage.unavailableMs.sort((a, b) => a - b);
+		if (outage.slow.length) console.log(`  503s slower than 1 s (seconds from \`db stop\`): ${outage.slow.join(', ')}`);
 		line('time to a 503 while down', outage.unavailableMs, `max ${Math.round(outage.unavailableMs.at(-1) ?? 0)} ms`);
 		check(lost === 0, `0 acknowledged writes lost (${lost} lost of ${ids.length})`);
 		check(outage.unavailable > 0, 'writes got 503 while the database was down');
