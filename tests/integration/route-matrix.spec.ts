@@ -7,7 +7,7 @@
 // deny by default, another team's object is indistinguishable from a missing one (404).
 import fs from 'node:fs';
 import path from 'node:path';
-import { eq, inArray } from 'drizzle-orm';
+import { eq, inArray, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { hashToken, newToken } from '../../src/lib/server/auth/tokens';
 import { createShareLink } from '../../src/lib/server/db/queries/shares';
@@ -134,6 +134,12 @@ const TABLE: Record<string, string> = {
 	'POST /teams/switch': SIGNED_IN
 };
 
+/** Form actions for which an empty form is valid: an invalid one instead, so the matrix writes nothing. */
+const INVALID_FORMS: Record<string, string> = {
+	'POST /revisions/[revisionId=id] ?/createShare': 'expiresInDays=0',
+	'POST /cars/[carId=id] ?/removeTarget': 'index=999'
+};
+
 const ROUTES = path.resolve('src/routes');
 
 /** The entries of the route tree: pages (GET), their form actions, and +server.ts methods. */
@@ -244,7 +250,7 @@ describe('route × role', () => {
 			headers['content-type'] = isApi ? 'application/json' : 'application/x-www-form-urlencoded';
 			// A browser's form post (not SvelteKit's enhanced JSON answer): real statuses and redirects.
 			if (!isApi) headers.accept = 'text/html';
-			body = isApi ? '[]' : '';
+			body = isApi ? '[]' : (INVALID_FORMS[entry] ?? '');
 		}
 		if (who.startsWith('token:')) headers.authorization = `Bearer ${ids.tokens[who.slice(6) as 'viewer']}`;
 		let res: Response;
@@ -270,7 +276,22 @@ describe('route × role', () => {
 		return `status ${status}`;
 	}
 
+	/** The demo team's rows the matrix must leave as they were (share links excepted: DELETE gets fresh ones). */
+	async function demoState() {
+		const db = testDb();
+		const [row] = await db.execute<Record<string, unknown>>(sql`select
+			(select count(*) from cars where team_id = ${DEMO_TEAM_ID})::int as cars,
+			(select count(*) from corners c join cars k on k.id = c.car_id where k.team_id = ${DEMO_TEAM_ID})::int as corners,
+			(select count(*) from revisions r join corners c on c.id = r.corner_id join cars k on k.id = c.car_id where k.team_id = ${DEMO_TEAM_ID})::int as revisions,
+			(select count(*) from invitations where team_id = ${DEMO_TEAM_ID})::int as invitations,
+			(select count(*) from memberships where team_id = ${DEMO_TEAM_ID})::int as memberships,
+			(select targets from cars where id = ${DEMO_CAR_ID}) as targets,
+			(select baseline_revision_id from corners where id = ${FRONT_LEFT}) as baseline`);
+		return JSON.stringify(row);
+	}
+
 	test('every entry answers every principal as the table says (sign-out last)', { timeout: 240_000 }, async () => {
+		const before = await demoState();
 		const entries = routeTree().sort((a, b) => Number(a.includes('/signout')) - Number(b.includes('/signout')));
 		const wrong: string[] = [];
 		let asked = 0;
@@ -285,5 +306,7 @@ describe('route × role', () => {
 		}
 		expect(asked).toBeGreaterThan(600);
 		expect(wrong).toEqual([]);
+		// Invalid bodies only: the demo team's cars, corners, revisions, targets, baseline and members are untouched.
+		expect(await demoState()).toBe(before);
 	});
 });
