@@ -1,7 +1,8 @@
 // The share sheet under many readers: 200 readers, each from its own loopback address (127.0.0.2 …), open one
 // link 10 times at once with the others. Two rounds: readers that behave like a browser (the first opening
 // fetches the page, each reopening revalidates with If-None-Match and gets 304), and readers that fetch the whole
-// page every time (curl, a browser with its cache off). Prints p50/p95 beside the target; asserts nothing.
+// page every time (curl, a browser with its cache off), after an unmeasured warm-up round. Prints p50/p95 beside
+// the target and the machine's load average; asserts nothing.
 import http from 'node:http';
 import { randomUUID } from 'node:crypto';
 import { readFileSync } from 'node:fs';
@@ -113,6 +114,8 @@ export async function run() {
 		const { url } = await shareLink(base);
 		const path = new URL(url).pathname;
 		await get(new http.Agent(), base + path, {}); // the first opening renders the sheet
+		// Warm-up, not measured: one round from other addresses (JIT, first connections), as benchmarks usually do.
+		await readers(base + path, { revalidate: false, firstAddress: 2 + 2 * READERS, opens: 2 });
 		console.log(`  ${READERS} readers × ${OPENS} openings of one link, each reader from its own 127.0.0.x address (load ${(await import('node:os')).loadavg()[0].toFixed(2)})`);
 		report('browsers (reopen revalidates: 304)', await readers(base + path, { revalidate: true, firstAddress: 2 }));
 		report('full page every time (no ETag sent)', await readers(base + path, { revalidate: false, firstAddress: 2 + READERS }));

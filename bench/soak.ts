@@ -62,6 +62,7 @@ async function main() {
 		console.log('\n== 1. share sheet: 200 readers × 10 openings');
 		const path = new URL(url).pathname;
 		await fetch(base + path).then((r) => r.text());
+		await readers(base + path, { revalidate: false, firstAddress: 402, opens: 2 }); // warm-up, not measured
 		report('browsers (reopen revalidates: 304)', await readers(base + path, { revalidate: true, firstAddress: 2 }));
 		report('full page every time (no ETag sent)', await readers(base + path, { revalidate: false, firstAddress: 202 }));
 
