@@ -59,19 +59,6 @@ export async function revokeShareLink(db: Database, shareId: string) {
 	return row ?? null;
 }
 
-/** The link with this token hash and the one revision it opens (with corner and car), or null. */
-export async function shareByTokenHash(db: Database, tokenHash: string) {
-	const [row] = await db
-		.select({ share: shareLinks, revision: revisions, corner: corners, car: cars })
-		.from(shareLinks)
-		.innerJoin(revisions, eq(revisions.id, shareLinks.revisionId))
-		.innerJoin(corners, eq(corners.id, revisions.cornerId))
-		.innerJoin(cars, and(eq(cars.id, corners.carId), eq(cars.teamId, shareLinks.teamId)))
-		.where(and(eq(shareLinks.tokenHash, tokenHash), eq(shareLinks.scope, 'revision')))
-		.limit(1);
-	return row ?? null;
-}
-
 /** The revision's columns but its geometry (the sheet reads that once per revision, see revisionById). */
 const { geometry: _geometry, ...revisionSummary } = getTableColumns(revisions);
 
