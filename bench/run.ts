@@ -5,6 +5,7 @@ import { ensureBuild, ensureChromium, prepareDatabase } from '../scripts/setup.m
 import * as fixSearch from './fix-search';
 import * as kinematics from './kinematics';
 import * as sharing from './sharing';
+import * as shareLoad from './share-load';
 import * as tolerance from './tolerance';
 import * as workspace from './workspace';
 
@@ -18,7 +19,8 @@ const BENCHES: [string, Bench][] = [
 	['fix-search', fixSearch],
 	['tolerance', tolerance],
 	['workspace', workspace],
-	['sharing', sharing]
+	['sharing', sharing],
+	['share-load', shareLoad]
 ];
 
 /** Parts that drive the built app in Chromium against the test database. */

@@ -14,6 +14,8 @@ declare global {
 			team: TeamRole | null;
 			/** a known-device token to set on this response (after a successful sign-in) */
 			deviceCookie?: string;
+			/** Set by handleError when the database could not be reached: the answer becomes a 503. */
+			unavailable?: boolean;
 		}
 		interface PageData {
 			user?: { id: string; email: string; name: string } | null;

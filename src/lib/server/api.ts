@@ -15,11 +15,41 @@ export function invalid(field: string, message: string, code = 'invalid'): never
 	error(400, { message: field && !message.startsWith(field) ? `${field}: ${message}` : message, code, field });
 }
 
-/** Parses the JSON body with a schema, or stops with 400 naming the field. */
+/** The body-size limit's refusal (adapter-node's BODY_SIZE_LIMIT raises an error with status 413 while reading). */
+export function tooLarge(e: unknown): boolean {
+	return !!e && typeof e === 'object' && (e as { status?: unknown }).status === 413;
+}
+
+/** Stops with 413 naming the limit, when reading a body failed because it was over the size limit. */
+export function refuseIfTooLarge(e: unknown): void {
+	if (tooLarge(e)) {
+		const detail = e instanceof Error && e.message ? ` (${e.message})` : '';
+		error(413, { message: `The body is larger than the server accepts${detail}`, code: 'too_large' });
+	}
+}
+
+/** True for application/json and any application/…+json media type (RFC 8259 §11, RFC 6839 §3.1). */
+export function isJsonType(contentType: string | null) {
+	const type = contentType?.split(';', 1)[0].trim().toLowerCase() ?? '';
+	return type === 'application/json' || (type.startsWith('application/') && type.endsWith('+json'));
+}
+
+/** Parses the JSON body with a schema: 415 unless sent as JSON, 413 over the size limit, 400 naming the field. */
 export async function parseBody<T extends z.ZodType>(event: RequestEvent, schema: T): Promise<z.infer<T>> {
+	const type = event.request.headers.get('content-type');
+	if (!isJsonType(type)) {
+		error(415, { message: `Send the body as application/json (got ${type ? type.split(';', 1)[0] : 'no content type'})`, code: 'unsupported_media_type', field: 'content-type' });
+	}
+	let text: string;
+	try {
+		text = await event.request.text();
+	} catch (e) {
+		refuseIfTooLarge(e);
+		throw e;
+	}
 	let raw: unknown;
 	try {
-		raw = await event.request.json();
+		raw = JSON.parse(text);
 	} catch {
 		invalid('', 'The body must be JSON', 'invalid_json');
 	}

@@ -1,5 +1,7 @@
 // The one place that decides who may do what. Every protected load, action and API handler calls it.
 import { error, redirect, type RequestEvent } from '@sveltejs/kit';
+import { dev } from '$app/environment';
+import { serverEnv } from '$lib/server/env';
 import { db } from '$lib/server/db';
 import { carForUser } from '$lib/server/db/queries/cars';
 import { cornerForUser, revisionForUser } from '$lib/server/db/queries/corners';
@@ -78,4 +80,9 @@ export async function requireRevision(event: RequestEvent, revisionId: string, a
 /** A share link of one of the caller's teams they may act on; 404 / 403 as for cars. */
 export async function requireShare(event: RequestEvent, shareId: string, action: Action) {
 	return allowed(await shareForUser(db, requireUser(event).id, shareId), 'Share link', action);
+}
+
+/** Development and demo pages (/dev/*): 404 unless this is development or demo mode (LW_DEMO). */
+export function requireDemoMode() {
+	if (!(dev || serverEnv().LW_DEMO)) notFound();
 }

@@ -25,3 +25,30 @@ export function allow(limit: LimitName, key: string): Promise<boolean> {
 export async function requireRate(limit: LimitName, key: string, message: string) {
 	if (!(await allow(limit, key))) error(429, { message, code: 'rate_limited' });
 }
+
+/** Per-process sliding logs of the limits counted in memory: key → times of the allowed events, oldest first. */
+const logs = new Map<string, number[]>();
+
+/**
+ * As allow, counted in this process's memory (the share sheet's hot path: no database write per opening, and no
+ * shared row or lock, so readers of one busy link never wait on each other). With several app instances each counts
+ * its own share, so a client may get up to the limit once per instance.
+ */
+export function allowLocal(limit: LimitName, key: string, now = Date.now()): boolean {
+	const { windowMs, max } = LIMITS[limit];
+	const id = `${limit}\u0000${key}`;
+	const log = logs.get(id) ?? [];
+	while (log.length && log[0] <= now - windowMs) log.shift();
+	if (log.length >= max) return false;
+	log.push(now);
+	logs.set(id, log);
+	return true;
+}
+
+/** Drops the logs whose events have all left their window (called by the share openings' flush timer). */
+export function sweepLocal(now = Date.now()) {
+	for (const [id, log] of logs) {
+		const limit = id.slice(0, id.indexOf('\u0000')) as LimitName;
+		if (!log.length || log[log.length - 1] <= now - LIMITS[limit].windowMs) logs.delete(id);
+	}
+}

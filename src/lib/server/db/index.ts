@@ -4,7 +4,7 @@ import { serverEnv } from '$lib/server/env';
 import { onShutdown } from '$lib/server/lifecycle';
 import { connect } from './connect';
 
-export const { db, client } = connect(building ? 'postgres://build@127.0.0.1:1/none' : serverEnv().DATABASE_URL);
+export const { db, client } = connect(building ? 'postgres://build@127.0.0.1:1/none' : serverEnv().DATABASE_URL, 10, { timeouts: true });
 export type { Database } from './connect';
 
 // At shutdown, after the last request: queries still running get a second, then the connections close.

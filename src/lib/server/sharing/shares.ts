@@ -1,5 +1,7 @@
 // Creating, listing and revoking share links, and mailing them. Callers have checked the 'share' permission.
 import type { RequestEvent } from '@sveltejs/kit';
+import { flushShareOpens, pendingOpens } from './opens';
+import { forgetShare } from './sheet';
 import type { CreateShareInput } from '$lib/schemas/share';
 import { POSITION_LABELS } from '$lib/schemas/corner';
 import { hashToken, newToken } from '$lib/server/auth/tokens';
@@ -86,18 +88,29 @@ export async function mailShare(target: Shared, actor: Actor, link: ShareLink, u
 	return { to, sent: true };
 }
 
+/** A link's counts with the openings this process has not written yet. */
+function withPending(s: { id: string; openCount: number; lastOpenedAt: Date | null }) {
+	const p = pendingOpens(s.id);
+	if (!p) return {};
+	return { openCount: s.openCount + p.count, lastOpenedAt: !s.lastOpenedAt || p.last > s.lastOpenedAt ? p.last : s.lastOpenedAt };
+}
+
 /** A revision's links as the API and the revision page list them. */
 export async function listShares(revisionId: string) {
 	const now = Date.now();
 	return (await sharesOfRevision(db, revisionId)).map((s) => ({
 		...s,
+		...withPending(s),
 		status: s.revokedAt ? ('revoked' as const) : s.expiresAt.getTime() <= now ? ('expired' as const) : ('active' as const)
 	}));
 }
 
 /** Revokes a link at once; false when it was revoked already. */
 export async function revokeShare(link: ShareLink, actorId: string) {
+	// The link's pending openings (and their audit event) are written before it stops.
+	await flushShareOpens();
 	const revoked = await revokeShareLink(db, link.id);
+	forgetShare(link.tokenHash);
 	if (!revoked) return false;
 	await recordAudit(db, {
 		teamId: link.teamId,

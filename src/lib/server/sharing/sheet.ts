@@ -1,6 +1,7 @@
 // What a share link shows: the shared revision's coordinate table (0.1 mm), what moved from the baseline,
 // the adopted tolerances and the solved positions for the 3-D view. Everything comes from the one shared revision
 // (and its corner's baseline); nothing else of the team is read.
+import { createHash } from 'node:crypto';
 import { error } from '@sveltejs/kit';
 import { POSITION_LABELS, KIND_LABELS } from '$lib/schemas/corner';
 import { cornerGeometrySchema, POINT_NAME, type CornerGeometry } from '$lib/schemas/geometry';
@@ -10,49 +11,97 @@ import { hashToken } from '$lib/server/auth/tokens';
 import { movedPoints } from '$lib/server/corners/compare';
 import { solveCorner } from '$lib/server/corners/solve';
 import { db } from '$lib/server/db';
-import { recordAudit } from '$lib/server/db/queries/audit';
-import { markShareOpened, revisionById, shareByTokenHash } from '$lib/server/db/queries/shares';
-import { tolerancesForRevision, type AdoptedTolerances } from '$lib/server/db/queries/tolerances';
-import { allow } from '$lib/server/rate-limit';
+import { revisionById, shareToOpen } from '$lib/server/db/queries/shares';
+import { latestTolerances, type AdoptedTolerances } from '$lib/server/db/queries/tolerances';
+import { allowLocal } from '$lib/server/rate-limit';
+import { recordShareOpen } from './opens';
 import type { SheetRow } from './sheet-csv';
 
 export { sheetCsv, type SheetRow } from './sheet-csv';
+export { OPENED_AUDIT_GAP_MS } from './opens';
 
-/** An "opened" audit event at most once per link in this period, so refreshing the page does not flood the log. */
-export const OPENED_AUDIT_GAP_MS = 30 * 60 * 1000;
 /** The sweep drawn in the 3-D view (mm of wheel travel). */
 export const SHARE_SWEEP = { sweep: 'heave' as const, from: -50, to: 50, step: 5, points: true };
 
-type Opened = NonNullable<Awaited<ReturnType<typeof shareByTokenHash>>>;
+export type Opened = NonNullable<Awaited<ReturnType<typeof shareToOpen>>>;
+
+/**
+ * Link lookups of the last LOOKUP_TTL_MS by token hash, so a burst of readers of one link costs one query.
+ * Revoking in this process drops the entry at once (`forgetShare`); another app instance sees a revocation, a
+ * moved baseline or newly adopted tolerances within LOOKUP_TTL_MS. Expiry is checked against the clock each time.
+ */
+const LOOKUP_TTL_MS = 1000;
+const lookups = new Map<string, { at: number; row: Promise<Opened | null> }>();
+
+async function lookUp(tokenHash: string): Promise<Opened | null> {
+	const now = Date.now();
+	const hit = lookups.get(tokenHash);
+	if (hit && now - hit.at < LOOKUP_TTL_MS) return hit.row;
+	const row = shareToOpen(db, tokenHash);
+	lookups.set(tokenHash, { at: now, row });
+	row.catch(() => lookups.delete(tokenHash));
+	if (lookups.size > 1000) for (const [k, v] of lookups) if (now - v.at >= LOOKUP_TTL_MS) lookups.delete(k);
+	return row;
+}
+
+/** Drops the cached lookup of a link (on revocation, so this process refuses it from the next request). */
+export function forgetShare(tokenHash: string) {
+	lookups.delete(tokenHash);
+}
 
 /**
  * The link behind a token, counted as opened unless count is false (the CSV download): 404 when unknown or
  * revoked, 410 when expired, 429 when one client opens it too often.
  */
 export async function openShare(token: string, clientAddress: string, { count = true } = {}): Promise<Opened> {
-	const found = await shareByTokenHash(db, hashToken(token));
+	const found = await lookUp(hashToken(token));
 	if (!found || found.share.revokedAt) error(404, { message: 'This link does not exist or was revoked.', code: 'not_found' });
 	if (found.share.expiresAt.getTime() <= Date.now()) {
 		error(410, { message: 'This link has expired. Ask the person who sent it for a new one.', code: 'expired' });
 	}
-	if (!(await allow('shareOpen', `${found.share.id}:${clientAddress}`))) {
+	if (!(allowLocal('shareOpen', `${found.share.id}:${clientAddress}`))) {
 		error(429, { message: 'This link was opened too often in a short time. Wait a few minutes and reload.', code: 'rate_limited' });
 	}
-	if (!count) return found;
-	const before = await markShareOpened(db, found.share.id);
-	if (!before || Date.now() - before.getTime() > OPENED_AUDIT_GAP_MS) {
-		await recordAudit(db, {
-			teamId: found.share.teamId,
-			actorId: null,
-			action: 'share.opened',
-			subjectType: 'share_link',
-			subjectId: found.share.id,
-			detail: { revisionId: found.revision.id, revision: found.revision.number, car: found.car.name, corner: found.corner.position }
-		});
+	if (count) {
+		const { revision, car, corner } = found;
+		recordShareOpen(found.share.id, found.share.teamId, { revisionId: revision.id, revision: revision.number, car: car.name, corner: corner.position });
 	}
 	return found;
 }
 
+/** The link's settings that change what its sheet shows (everything but its counters), for cache keys. */
+function settingsOf(share: Opened['share']) {
+	const { openCount: _c, lastOpenedAt: _l, ...settings } = share;
+	return settings;
+}
+
+/**
+ * A version key of what an opened link shows: the link's settings, its revision (immutable), the corner's
+ * baseline (immutable once written; the pointer may move) and the adopted tolerances (read anew each time).
+ */
+export function sheetVersion(opened: Opened) {
+	const tolerances = latestTolerances(opened.tolerances);
+	const key = JSON.stringify([settingsOf(opened.share), opened.revision.id, opened.corner.baselineRevisionId, tolerances]);
+	return { key: createHash('sha256').update(key).digest('base64url').slice(0, 27), tolerances };
+}
+
+type Sheet = Awaited<ReturnType<typeof buildSheet>> & { frames: ReturnType<typeof framesOf> };
+/** Sheets already built, by version key (a few hundred at most; the oldest go first). */
+const built = new Map<string, Promise<Sheet>>();
+const BUILT_MAX = 300;
+
+/** The sheet of an opened link with its solved frames, built once per version and kept in memory. */
+export async function cachedSheet(opened: Opened): Promise<Sheet & { version: string }> {
+	const { key, tolerances } = sheetVersion(opened);
+	let entry = built.get(key);
+	if (!entry) {
+		entry = buildSheet(opened, tolerances).then((sheet) => ({ ...sheet, frames: framesOf(sheet.geometry) }));
+		built.set(key, entry);
+		entry.catch(() => built.delete(key));
+		while (built.size > BUILT_MAX) built.delete(built.keys().next().value!);
+	}
+	return { ...(await entry), version: key };
+}
 
 /** The table rows in the kind's point order, then any other points of the file. */
 function rowsOf(g: CornerGeometry, baseline: CornerGeometry | null, tolerances: AdoptedTolerances | null): SheetRow[] {
@@ -83,12 +132,16 @@ function storedGeometry(raw: unknown): CornerGeometry {
 }
 
 /** Everything the share page and its CSV show for an opened link (the revision's internal note only when the link says so). */
-export async function sheetOf({ share, revision, corner, car }: Opened) {
-	const geometry = storedGeometry(revision.geometry);
+export async function sheetOf(opened: Opened) {
+	return buildSheet(opened, latestTolerances(opened.tolerances));
+}
+
+async function buildSheet({ share, revision, corner, car }: Opened, tolerances: AdoptedTolerances | null) {
+	const full = await revisionById(db, revision.id);
+	const geometry = storedGeometry(full!.geometry);
 	const isBaseline = corner.baselineRevisionId === revision.id;
 	const baselineRow = !isBaseline && corner.baselineRevisionId ? await revisionById(db, corner.baselineRevisionId) : null;
 	const baseline = baselineRow && baselineRow.cornerId === corner.id ? storedGeometry(baselineRow.geometry) : null;
-	const tolerances = await tolerancesForRevision(db, corner.id, revision.id);
 	return {
 		link: { note: share.note, expiresAt: share.expiresAt },
 		car: { name: car.name, series: car.series },

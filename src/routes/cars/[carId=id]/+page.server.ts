@@ -32,7 +32,9 @@ export const actions: Actions = {
 	},
 	removeTarget: async (event) => {
 		const { car } = await requireCar(event, event.params.carId, 'edit');
-		const index = Number((await event.request.formData()).get('index'));
+		// A missing index is not target 0: only a whole number that was sent removes a target.
+		const raw = (await event.request.formData()).get('index');
+		const index = typeof raw === 'string' && /^\d+$/.test(raw.trim()) ? Number(raw) : NaN;
 		const targets = targetsSchema.catch([]).parse(car.targets);
 		if (!Number.isInteger(index) || index < 0 || index >= targets.length) return fail(400, { targetError: 'That target is no longer there.' });
 		targets.splice(index, 1);

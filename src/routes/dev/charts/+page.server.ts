@@ -5,6 +5,7 @@ import { cornerGeometrySchema, formatIssue } from '$lib/schemas/geometry';
 import { solveSweep } from '$lib/server/kinematics';
 import stockFile from '../../../../fixtures/club-fwd-front-left.json';
 import rackMovedFile from '../../../../fixtures/club-fwd-front-left-rack-moved.json';
+import { requireDemoMode } from '$lib/server/permissions';
 import type { PageServerLoad } from './$types';
 
 const SWEEP = { sweep: 'heave', from: -50, to: 50, step: 1 } as const;
@@ -17,7 +18,10 @@ function solve(id: string, file: unknown) {
 	return { id, name: parsed.data.name, samples, error: sweepError };
 }
 
-export const load: PageServerLoad = () => ({
+export const load: PageServerLoad = () => {
+	requireDemoMode();
+	return {
 	sweep: SWEEP,
 	revisions: [solve('stock', stockFile), solve('rack-moved', rackMovedFile)]
-});
+	};
+};

@@ -5,6 +5,7 @@ import { solveSweep } from '$lib/server/kinematics';
 import clubStock from '../../../../fixtures/club-fwd-front-left.json';
 import clubRackMoved from '../../../../fixtures/club-fwd-front-left-rack-moved.json';
 import roadStrut from '../../../../fixtures/road-strut-front-left.json';
+import { requireDemoMode } from '$lib/server/permissions';
 import type { PageServerLoad } from './$types';
 
 /** The demo corners: the shown revision and an optional ghost to compare with. */
@@ -23,6 +24,7 @@ function solve(raw: unknown) {
 }
 
 export const load: PageServerLoad = ({ url }) => {
+	requireDemoMode();
 	const key = (url.searchParams.get('corner') ?? 'club') as CornerKey;
 	const chosen = CORNERS[key];
 	if (!chosen) error(404, 'No such demo corner');

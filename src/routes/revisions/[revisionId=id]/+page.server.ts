@@ -40,6 +40,8 @@ export const actions: Actions = {
 		return { created: { ...created, expiresAt: created.expiresAt.toISOString() } };
 	},
 	revokeShare: async (event) => {
+		// Permission first (the revision's 'share'), so a caller without it learns nothing from the form's checks.
+		await requireRevision(event, event.params.revisionId, 'share');
 		const parsed = parseForm(await event.request.formData(), revokeForm);
 		if (!parsed.ok) return fail(400, { revokeError: parsed.errors.shareId ?? 'Choose a link' });
 		const { share } = await requireShare(event, parsed.data.shareId, 'share');

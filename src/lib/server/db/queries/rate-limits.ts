@@ -21,3 +21,4 @@ export async function takeRate(db: Database, bucket: string, key: string, window
 		return true;
 	});
 }
+

@@ -1,7 +1,8 @@
 // Share links: read-only links to one revision for people without an account. Only the token's hash is stored.
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, desc, eq, getTableColumns, sql } from 'drizzle-orm';
+import { tolerancesOfRevisionSql } from './tolerances';
 import type { Database } from '../connect';
-import { cars, corners, memberships, revisions, shareLinks, users } from '../schema';
+import { auditEvents, cars, corners, memberships, revisions, shareLinks, users } from '../schema';
 
 export interface NewShareLink {
 	teamId: string;
@@ -60,10 +61,16 @@ export async function revokeShareLink(db: Database, shareId: string) {
 	return row ?? null;
 }
 
-/** The link with this token hash and the one revision it opens (with corner and car), or null. */
-export async function shareByTokenHash(db: Database, tokenHash: string) {
+/** The revision's columns but its geometry (the sheet reads that once per revision, see revisionById). */
+const { geometry: _geometry, ...revisionSummary } = getTableColumns(revisions);
+
+/**
+ * What opening a link needs in one round trip: the link, its revision (without the geometry), corner and car,
+ * and the adopted tolerances of that revision (raw; pick with latestTolerances). Null for an unknown token.
+ */
+export async function shareToOpen(db: Database, tokenHash: string) {
 	const [row] = await db
-		.select({ share: shareLinks, revision: revisions, corner: corners, car: cars })
+		.select({ share: shareLinks, revision: revisionSummary, corner: corners, car: cars, tolerances: tolerancesOfRevisionSql(corners.id, revisions.id) })
 		.from(shareLinks)
 		.innerJoin(revisions, eq(revisions.id, shareLinks.revisionId))
 		.innerJoin(corners, eq(corners.id, revisions.cornerId))
@@ -73,19 +80,50 @@ export async function shareByTokenHash(db: Database, tokenHash: string) {
 	return row ?? null;
 }
 
-/** Counts one opening; returns when the link had last been opened before this (null the first time). */
-export async function markShareOpened(db: Database, shareId: string): Promise<Date | null> {
-	return db.transaction(async (tx) => {
-		const [before] = await tx
-			.select({ lastOpenedAt: shareLinks.lastOpenedAt })
-			.from(shareLinks)
-			.where(eq(shareLinks.id, shareId))
-			.for('update');
-		await tx
-			.update(shareLinks)
-			.set({ openCount: sql`${shareLinks.openCount} + 1`, lastOpenedAt: sql`now()` })
-			.where(eq(shareLinks.id, shareId));
-		return before?.lastOpenedAt ?? null;
+/** Openings of one link gathered in memory between two flushes (see sharing/opens.ts). */
+export interface ShareOpenBatch {
+	shareId: string;
+	teamId: string;
+	count: number;
+	first: Date;
+	last: Date;
+	detail: Record<string, unknown>;
+}
+
+/**
+ * Adds a batch of openings to their links (open_count, last_opened_at) in one transaction, and writes a
+ * `share.opened` audit event, dated at the batch's first opening, for each link not opened within gapMs before it.
+ * Each link row is locked only for its own update.
+ */
+export async function addShareOpens(db: Database, batches: ShareOpenBatch[], gapMs: number) {
+	if (batches.length === 0) return;
+	await db.transaction(async (tx) => {
+		for (const b of [...batches].sort((x, y) => x.shareId.localeCompare(y.shareId))) {
+			const [before] = await tx
+				.select({ lastOpenedAt: shareLinks.lastOpenedAt })
+				.from(shareLinks)
+				.where(eq(shareLinks.id, b.shareId))
+				.for('update');
+			if (!before) continue; // the link was deleted with its revision or team
+			await tx
+				.update(shareLinks)
+				.set({
+					openCount: sql`${shareLinks.openCount} + ${b.count}`,
+					lastOpenedAt: sql`greatest(${shareLinks.lastOpenedAt}, ${b.last.toISOString()}::timestamptz)`
+				})
+				.where(eq(shareLinks.id, b.shareId));
+			if (!before.lastOpenedAt || b.first.getTime() - before.lastOpenedAt.getTime() > gapMs) {
+				await tx.insert(auditEvents).values({
+					teamId: b.teamId,
+					actorId: null,
+					action: 'share.opened',
+					subjectType: 'share_link',
+					subjectId: b.shareId,
+					detail: { ...b.detail, opens: b.count },
+					createdAt: b.first
+				});
+			}
+		}
 	});
 }
 

@@ -1,11 +1,11 @@
 import { fileName } from '$lib/server/corners/present';
-import { openShare, sheetCsv, sheetOf } from '$lib/server/sharing/sheet';
+import { cachedSheet, openShare, sheetCsv } from '$lib/server/sharing/sheet';
 import type { RequestHandler } from './$types';
 
 // The sheet's coordinate table as CSV, reached only through the token (never by a revision id).
 export const GET: RequestHandler = async (event) => {
 	const opened = await openShare(event.params.token, event.getClientAddress(), { count: false });
-	const sheet = await sheetOf(opened);
+	const sheet = await cachedSheet(opened);
 	const name = fileName(sheet.car.name, sheet.corner.position, `r${sheet.revision.number}`, 'sheet');
 	return new Response(sheetCsv(sheet.rows, sheet.hasTolerances), {
 		headers: {

@@ -1,7 +1,7 @@
-import { json } from '@sveltejs/kit';
+import { error, json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { IMPORT_LIMITS } from '$lib/schemas/import';
-import { endpoint, invalid, parseWith } from '$lib/server/api';
+import { endpoint, invalid, parseWith, refuseIfTooLarge } from '$lib/server/api';
 import { runImport } from '$lib/server/corners/import';
 import { requireCorner } from '$lib/server/permissions';
 import type { RequestEvent } from './$types';
@@ -17,10 +17,15 @@ const fields = z.object({
 // Multipart: file (the CSV), options (JSON of the import options), dryRun, label, note, loadedRadius?, springOn?.
 export const POST = endpoint<RequestEvent>(async (event) => {
 	const { corner, car } = await requireCorner(event, event.params.cornerId, 'edit');
+	const type = event.request.headers.get('content-type')?.split(';', 1)[0].trim().toLowerCase() ?? '';
+	if (type !== 'multipart/form-data') {
+		error(415, { message: `Send multipart/form-data with a file field and an options field (got ${type || 'no content type'})`, code: 'unsupported_media_type', field: 'content-type' });
+	}
 	let form: FormData;
 	try {
 		form = await event.request.formData();
-	} catch {
+	} catch (e) {
+		refuseIfTooLarge(e);
 		invalid('', 'Send multipart/form-data with a file field and an options field', 'invalid_form');
 	}
 	const file = form.get('file');
