@@ -208,7 +208,7 @@ describe('route × role', () => {
 		const [study] = await db.insert(studies).values({ cornerId: FRONT_LEFT, name: 'Matrix study', settings: {}, results: {} }).returning();
 		ids.studyId = study.id;
 		ids.shareToken = newToken();
-		await createShareLink(db, { teamId: DEMO_TEAM_ID, revisionId: rev.id, tokenHash: hashToken(ids.shareToken), note: '', expiresAt: new Date(Date.now() + 86400_000), createdBy: demoUsers[0].id });
+		await createShareLink(db, { teamId: DEMO_TEAM_ID, revisionId: rev.id, tokenHash: hashToken(ids.shareToken), note: '', showRevisionNote: false, expiresAt: new Date(Date.now() + 86400_000), createdBy: demoUsers[0].id });
 	});
 
 	afterAll(closeDb);
@@ -216,7 +216,7 @@ describe('route × role', () => {
 	/** A fresh share link of the demo team (DELETE revokes it, so each request gets its own). */
 	async function freshShareId() {
 		const [u] = await testDb().select().from(users).where(eq(users.email, 'owner@linkwright.test'));
-		const link = await createShareLink(testDb(), { teamId: DEMO_TEAM_ID, revisionId: ids.revisionId, tokenHash: hashToken(newToken()), note: '', expiresAt: new Date(Date.now() + 86400_000), createdBy: u.id });
+		const link = await createShareLink(testDb(), { teamId: DEMO_TEAM_ID, revisionId: ids.revisionId, tokenHash: hashToken(newToken()), note: '', showRevisionNote: false, expiresAt: new Date(Date.now() + 86400_000), createdBy: u.id });
 		return link.id;
 	}
 
