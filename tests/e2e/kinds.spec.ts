@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { signIn } from './helpers';
+import { settled, signIn } from './helpers';
 
 // The general model's kinds in the app: a pushrod corner from the template, a five-link import with the
 // trade's names, and the fix search freeing a rocker point. The demo cars are invented (scripts/seed.ts).
@@ -33,6 +33,7 @@ test('an engineer starts a pushrod corner from the template, moves a rocker poin
 		await page.getByRole('button', { name: 'Add corner' }).click();
 	} else await page.getByRole('link', { name: /Front right/ }).click();
 	await expect(page.getByRole('heading', { name: /Front right/ })).toBeVisible({ timeout: 20_000 });
+	await settled(page);
 
 	await page.getByTestId('rocker-toggle').check();
 	await expect(page.getByLabel('Rocker, rod joint, z in mm')).toBeVisible();
@@ -73,6 +74,7 @@ test("an engineer imports a five-link point list written with the trade's names"
 	await signIn(page, 'engineer@linkwright.test');
 	await page.goto(FIVE_LINK);
 	await page.getByRole('link', { name: 'Import CSV' }).click();
+	await settled(page);
 	// the stock five-link (fixtures/single-seater-rear-left-five-link.json) with the toe link 3 mm lower, named as a drawing would
 	const csv = [
 		'name,x,y,z',
@@ -119,6 +121,7 @@ test('the fix search frees a rocker point to bring back the stock rocker swing',
 	await expect(page.getByText(/Showing r2 “rod end out 10 mm”/)).toBeVisible({ timeout: 20_000 });
 	await page.getByRole('link', { name: 'Fix search' }).click();
 	await expect(page.getByRole('heading', { name: 'Fix search' })).toBeVisible({ timeout: 20_000 });
+	await settled(page);
 
 	for (const coord of ['rocker.rod_end y', 'rocker.rod_end z']) {
 		await page.getByLabel(`Move ${coord}`).check();
