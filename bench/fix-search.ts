@@ -5,8 +5,8 @@ import { readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import type { CornerInput } from '../src/lib/server/kinematics/corner';
-import { CornerEvaluator, toChange } from '../src/lib/server/kinematics/evaluate';
-import { fixSearch, type FixSearchInput } from '../src/lib/server/kinematics/fix-search';
+import { CornerEvaluator, toChange } from '../src/lib/server/studies/evaluate';
+import { fixSearch, type FixSearchInput } from '../src/lib/server/studies/fix-search';
 
 const DEMO = join(import.meta.dirname, '..', 'fixtures', 'demo');
 const GRID = { from: -40, to: 40, step: 2 }; // 41 positions

@@ -6,9 +6,9 @@ import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { bundleWorker } from '../scripts/worker-bundle.mjs';
 import type { CornerInput } from '../src/lib/server/kinematics/corner';
-import { endIdleWorkers, runTolerance } from '../src/lib/server/kinematics/parallel';
-import { LINKAGE_POINTS } from '../src/lib/server/kinematics/sensitivity';
-import { bands, firstOrder, nominalCurves, type ToleranceSpec } from '../src/lib/server/kinematics/tolerance';
+import { endIdleWorkers, runTolerance } from '../src/lib/server/studies/parallel';
+import { LINKAGE_POINTS } from '../src/lib/server/studies/sensitivity';
+import { bands, firstOrder, nominalCurves, type ToleranceSpec } from '../src/lib/server/studies/tolerance';
 
 const STOCK = join(import.meta.dirname, '..', 'fixtures', 'demo', 'front-left-stock.json');
 

@@ -1,4 +1,4 @@
-// Bundles the kinematics worker entry (src/lib/server/kinematics/tolerance-worker.ts) into one CommonJS text,
+// Bundles the kinematics worker entry (src/lib/server/studies/tolerance-worker.ts) into one CommonJS text,
 // which the app starts with `new Worker(code, { eval: true })`. Used by vite.config.ts (a virtual module,
 // so the built app carries the text inside its server bundle) and by the bench (run under tsx).
 import { build } from 'esbuild';
@@ -6,7 +6,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
-export const WORKER_ENTRY = path.join(root, 'src/lib/server/kinematics/tolerance-worker.ts');
+export const WORKER_ENTRY = path.join(root, 'src/lib/server/studies/tolerance-worker.ts');
 export const WORKER_MODULE_ID = 'virtual:lw-tolerance-worker';
 
 /** The bundled worker code and the files it was built from. */

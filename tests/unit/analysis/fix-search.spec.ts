@@ -4,8 +4,8 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { CornerInput } from '../../../src/lib/server/kinematics/corner';
-import { CornerEvaluator, toChange } from '../../../src/lib/server/kinematics/evaluate';
-import { fixSearch, movesNote, startingPoints } from '../../../src/lib/server/kinematics/fix-search';
+import { CornerEvaluator, toChange } from '../../../src/lib/server/studies/evaluate';
+import { fixSearch, movesNote, startingPoints } from '../../../src/lib/server/studies/fix-search';
 import { constructedInner, offTieRodLine, textbookCorner } from './textbook-corner';
 
 const ROOT = join(import.meta.dirname, '..', '..', '..');

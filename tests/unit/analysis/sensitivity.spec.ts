@@ -6,8 +6,8 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { CornerInput } from '../../../src/lib/server/kinematics/corner';
-import { CornerEvaluator } from '../../../src/lib/server/kinematics/evaluate';
-import { curveDerivatives, sensitivity } from '../../../src/lib/server/kinematics/sensitivity';
+import { CornerEvaluator } from '../../../src/lib/server/studies/evaluate';
+import { curveDerivatives, sensitivity } from '../../../src/lib/server/studies/sensitivity';
 
 const ROOT = join(import.meta.dirname, '..', '..', '..');
 const stock = JSON.parse(readFileSync(join(ROOT, 'fixtures', 'demo', 'front-left-stock.json'), 'utf8')) as CornerInput;

@@ -6,10 +6,10 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import workerCode from 'virtual:lw-tolerance-worker';
 import type { CornerInput } from '../../../src/lib/server/kinematics/corner';
-import { runTolerance } from '../../../src/lib/server/kinematics/parallel';
-import { Random } from '../../../src/lib/server/kinematics/random';
-import { LINKAGE_POINTS } from '../../../src/lib/server/kinematics/sensitivity';
-import { bands, firstOrder, nominalCurves, runSamples, sampleOffsets, suggestTolerances, varianceShares, type ToleranceSpec } from '../../../src/lib/server/kinematics/tolerance';
+import { runTolerance } from '../../../src/lib/server/studies/parallel';
+import { Random } from '../../../src/lib/server/studies/random';
+import { LINKAGE_POINTS } from '../../../src/lib/server/studies/sensitivity';
+import { bands, firstOrder, nominalCurves, runSamples, sampleOffsets, suggestTolerances, varianceShares, type ToleranceSpec } from '../../../src/lib/server/studies/tolerance';
 
 const ROOT = join(import.meta.dirname, '..', '..', '..');
 const stock = JSON.parse(readFileSync(join(ROOT, 'fixtures', 'demo', 'front-left-stock.json'), 'utf8')) as CornerInput;

@@ -4,11 +4,11 @@ import { joinRocker, splitRocker } from '$lib/kinds';
 import { error } from '@sveltejs/kit';
 import { AXIS_NAMES, MOVABLE_POINTS, type FixSearchRequest, type ToleranceStudyRequest } from '$lib/schemas/analysis';
 import type { CornerGeometry } from '$lib/schemas/geometry';
-import { CornerEvaluator, toChange, type CurveMeasure } from '$lib/server/kinematics/evaluate';
-import { fixSearch, movesNote, type FixSearchResult } from '$lib/server/kinematics/fix-search';
-import { runTolerance, type RunOutcome } from '$lib/server/kinematics/parallel';
-import { sensitivity } from '$lib/server/kinematics/sensitivity';
-import { bands, firstOrder, nominalCurves, suggestTolerances, varianceShares, type ToleranceSpec } from '$lib/server/kinematics/tolerance';
+import { CornerEvaluator, toChange, type CurveMeasure } from '$lib/server/studies/evaluate';
+import { fixSearch, movesNote, type FixSearchResult } from '$lib/server/studies/fix-search';
+import { runTolerance, type RunOutcome } from '$lib/server/studies/parallel';
+import { sensitivity } from '$lib/server/studies/sensitivity';
+import { bands, firstOrder, nominalCurves, suggestTolerances, varianceShares, type ToleranceSpec } from '$lib/server/studies/tolerance';
 import { workerCode } from './worker-code';
 
 const axisIndex = (a: (typeof AXIS_NAMES)[number]) => AXIS_NAMES.indexOf(a) as 0 | 1 | 2;

@@ -4,7 +4,7 @@ import { runToleranceStudy, toleranceSpec } from '$lib/server/analysis/run';
 import { endpoint, parseBody, parseWith } from '$lib/server/api';
 import { db } from '$lib/server/db';
 import { saveStudyResults } from '$lib/server/db/queries/studies';
-import { RunCancelled } from '$lib/server/kinematics/parallel';
+import { RunCancelled } from '$lib/server/studies/parallel';
 import { can, requireRevision } from '$lib/server/permissions';
 import type { RequestEvent } from './$types';
 

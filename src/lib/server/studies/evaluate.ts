@@ -2,11 +2,11 @@
 // The fast path for analyses that solve one corner many times with its points moved: a heave sweep of a
 // few chosen measures, the points offset by given amounts, into a caller's Float64Array.
 
-import { DEG } from './constants';
-import { compileCorner, flatPoints, isFault, type CornerInput, type PointTuple } from './corner';
-import * as F from './measures';
-import { OK } from './solve';
-import { gridCount, runSweep, SweepBuffer, type SweepSpec } from './sweep';
+import { DEG } from '../kinematics/constants';
+import { compileCorner, flatPoints, isFault, type CornerInput, type PointTuple } from '../kinematics/corner';
+import * as F from '../kinematics/measures';
+import { OK } from '../kinematics/solve';
+import { gridCount, runSweep, SweepBuffer, type SweepSpec } from '../kinematics/sweep';
 
 /** Curve measures an analysis may ask for, with their column and whether they are angles (degrees out). */
 export const CURVE_MEASURES = {

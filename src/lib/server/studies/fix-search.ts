@@ -6,7 +6,7 @@
 
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { AXES, CornerEvaluator, toChange, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
-import type { CornerInput } from './corner';
+import type { CornerInput } from '../kinematics/corner';
 
 /** A free coordinate and its bounds: the move (mm) stays within min…max (min ≤ 0 ≤ max). */
 export interface FreeCoordinate extends Coordinate {

@@ -3,7 +3,7 @@
 // differences of the whole heave sweep, ranked so the engineer sees which points matter.
 
 import { ALL_POINT_NAMES } from '../../kinds';
-import { flatPoints, type CornerInput } from './corner';
+import { flatPoints, type CornerInput } from '../kinematics/corner';
 import { AXES, CornerEvaluator, toChange, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 
 /** Points whose placement a fabricator sets (chassis brackets, upright joints, the rocker's): every kind's points,

@@ -6,7 +6,7 @@
 // of uncertainty, JCGM 100:2008 "GUM", 5.1.2), the share of variance each point causes, and tolerances
 // suggested so a chosen measure's 5–95 % band stays inside its target.
 
-import type { CornerInput } from './corner';
+import type { CornerInput } from '../kinematics/corner';
 import { CornerEvaluator, toChange, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 import { Random } from './random';
 import { curveDerivatives } from './sensitivity';
