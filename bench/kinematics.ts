@@ -82,6 +82,36 @@ function line(label: string, value: string, target: string): void {
 	console.log(`  ${label.padEnd(58)} ${value.padStart(14)}   target ${target}`);
 }
 
+/** A fixture corner. */
+function fixture(name: string): CornerInput {
+	return JSON.parse(readFileSync(join(import.meta.dirname, '..', 'fixtures', `${name}.json`), 'utf8')) as CornerInput;
+}
+
+/** The hand-tuned floor of this sweep in plain JavaScript (issue 14, measured before the general model): 27 µs. */
+const FLOOR_US = 27;
+
+/** Median of the 161-position heave sweep, all measures, for each kind through the general model. */
+function perKind(dwUs: number): void {
+	console.log('  per kind, heave -80..80 mm by 1 mm, all measures (general model: description → plan → chain):');
+	const strut = sweepMedianUs(new CornerSolver(fixture('road-strut-front-left')));
+	line('  strut (slider chain), median', `${strut.toFixed(1)} µs`, '(no target)');
+	const five = sweepMedianUs(new CornerSolver(fixture('single-seater-rear-left-five-link')));
+	line('  five-link (rods chain, Newton 6×6), median', `${five.toFixed(1)} µs`, '<= 250 µs');
+	const semi = sweepMedianUs(new CornerSolver(fixture('road-rear-left-semi-trailing')));
+	line('  semi-trailing arm (revolute chain), median', `${semi.toFixed(1)} µs`, '(no target)');
+	// the same single-seater front with its spring on the lower arm, and with the pushrod and rocker instead
+	const plain = fixture('single-seater-front-left');
+	const pushrod = fixture('single-seater-front-left-pushrod');
+	const base = sweepMedianUs(new CornerSolver(plain));
+	const rocker = sweepMedianUs(new CornerSolver(pushrod));
+	line('  double wishbone without / with a pushrod rocker', `${base.toFixed(1)} / ${rocker.toFixed(1)} µs`, '(rocker adds ≤ 20 %)');
+	line('  rocker overhead', `${(((rocker - base) / base) * 100).toFixed(1)} %`, '<= 20 %');
+	const fiveBytes = bytesPerSweep(new CornerSolver(fixture('single-seater-rear-left-five-link')));
+	const rockerBytes = bytesPerSweep(new CornerSolver(pushrod));
+	line('  heap growth per sweep, five-link / pushrod rocker', `${fiveBytes.toFixed(0)} / ${rockerBytes.toFixed(0)} B`, '~0 B');
+	line('  double wishbone against the 27 µs hand-tuned floor', `${(dwUs / FLOOR_US).toFixed(2)} x`, '(ratio, printed)');
+}
+
 /** Run the kinematics bench and print its figures. */
 export async function run(): Promise<void> {
 	const corner = JSON.parse(readFileSync(FIXTURE, 'utf8')) as CornerInput;
@@ -92,11 +122,12 @@ export async function run(): Promise<void> {
 	const load = loadavg()[0].toFixed(2);
 	console.log(`  (load average ${load} on ${availableParallelism()} cores: figures are slower on a busy machine)`);
 	const us = sweepMedianUs(solver);
-	line('engine sweep, all measures, median', `${us.toFixed(1)} µs`, '<= 100 µs');
+	line('engine sweep (double wishbone), all measures, median', `${us.toFixed(1)} µs`, '<= 100 µs');
 	const rate = throughput(solver);
-	line('engine batch throughput, all measures, one core', `${Math.round(rate).toLocaleString('en')} /s`, '>= 1,000,000 /s');
+	line('engine batch throughput, all measures, one core', `${Math.round(rate).toLocaleString('en')} /s`, '>= 1,500,000 /s');
 	const bytes = bytesPerSweep(solver);
 	line('heap growth per sweep (200 sweeps between full GCs)', `${bytes.toFixed(0)} B`, '~0 B');
+	perKind(us);
 	const ref = await referenceMedianUs(corner);
 	line('general route (mathjs 6-DOF Newton, numeric Jacobian), median', `${(ref / 1000).toFixed(1)} ms`, '(reference)');
 	line('speed ratio, general route / engine', `${(ref / us).toFixed(0)} x`, '>= 50 x');

@@ -64,6 +64,12 @@ export class Branch {
 
 /** Copy branch b into a. */
 export function setBranch(a: Branch, b: Branch): void {
+	setAngles(a, b);
+	copy12(a.q, b.q);
+}
+
+/** Copy branch b's angles into a (the closed-form chains' whole state; the rods chain's pose is not copied). */
+export function setAngles(a: Branch, b: Branch): void {
 	a.theta = b.theta;
 	a.phiC = b.phiC;
 	a.phiS = b.phiS;
@@ -72,7 +78,11 @@ export function setBranch(a: Branch, b: Branch): void {
 	a.tau = b.tau;
 	a.rockerC = b.rockerC;
 	a.rockerS = b.rockerS;
-	a.q.set(b.q);
+}
+
+/** a = b for the 12 numbers of a rods pose (a loop: cheaper than TypedArray.set for so few). */
+export function copy12(a: Float64Array, b: Float64Array): void {
+	for (let i = 0; i < 12; i++) a[i] = b[i];
 }
 
 /** A solved pose and its velocity per unit θ: scratch buffers, reused for every position. */

@@ -7,7 +7,7 @@ import { GRID_DECIMALS, GRID_TOL, MAX_SAMPLES, MAX_STEP_MM, MAX_STEP_ROLL_RAD, R
 import { B_CHASSIS, B_LOWER, B_RACK, B_ROCKER, B_UPPER, CHAIN_RODS, type CornerModel } from './corner';
 import { computeMeasures, N_FIELDS, SWEEP_HEAVE, SWEEP_ROLL, SWEEP_STEER, type MeasureContext } from './measures';
 import { axisCosSin, mat3, rotate } from './pose';
-import { Branch, FAIL_CONTACT, OK, Pose, setBranch, solvePosition, type Driver } from './solve';
+import { Branch, copy12, FAIL_CONTACT, OK, Pose, setAngles, setBranch, solvePosition, type Driver } from './solve';
 import { vec3 } from './vec3';
 
 /** A sweep request: kind (SWEEP_*), grid (mm or degrees), rack held (mm; heave and roll). */
@@ -80,9 +80,10 @@ class Walker {
 	prev4P = 0;
 	prev4Theta = 0;
 	nHist = 0;
-	/** rods chain: the last two solved poses (Branch.q) */
+	/** rods chain: the last three solved poses (Branch.q) */
 	readonly prevQ = new Float64Array(12);
 	readonly prev2Q = new Float64Array(12);
+	readonly prev3Q = new Float64Array(12);
 }
 
 const walker = new Walker();
@@ -120,15 +121,27 @@ function predict(m: CornerModel, w: Walker): void {
 	}
 }
 
-/** Rods chain: w.pose.guessQ extrapolated linearly from the last two solved poses (Newton re-orthonormalises). */
+/** Rods chain: w.pose.guessQ extrapolated from the last two or three solved poses (Newton re-orthonormalises). */
 function predictPose(w: Walker): void {
 	const g = w.pose.guessQ;
-	if (w.nHist < 2 || w.prevP === w.prev2P) {
-		g.set(w.ref.q);
+	const x = w.at;
+	const p1 = w.prevP;
+	const p2 = w.prev2P;
+	const p3 = w.prev3P;
+	if (w.nHist < 2 || p1 === p2) {
+		copy12(g, w.ref.q);
 		return;
 	}
-	const t = (w.at - w.prevP) / (w.prevP - w.prev2P);
-	for (let i = 0; i < 12; i++) g[i] = w.prevQ[i] + t * (w.prevQ[i] - w.prev2Q[i]);
+	if (w.nHist < 3 || p3 === p1 || p3 === p2) {
+		const t = (x - p1) / (p1 - p2);
+		for (let i = 0; i < 12; i++) g[i] = w.prevQ[i] + t * (w.prevQ[i] - w.prev2Q[i]);
+		return;
+	}
+	// Lagrange quadratic through the last three poses
+	const l1 = ((x - p2) * (x - p3)) / ((p1 - p2) * (p1 - p3));
+	const l2 = ((x - p1) * (x - p3)) / ((p2 - p1) * (p2 - p3));
+	const l3 = ((x - p1) * (x - p2)) / ((p3 - p1) * (p3 - p2));
+	for (let i = 0; i < 12; i++) g[i] = l1 * w.prevQ[i] + l2 * w.prev2Q[i] + l3 * w.prev3Q[i];
 }
 
 /** Set the driver, context and rack (w.pose.rack) for w.sweep at position w.at (mm or degrees). */
@@ -160,9 +173,12 @@ function step(m: CornerModel, w: Walker): number {
 	predict(m, w);
 	const code = solvePosition(m, w.ref, w.driver, w.pose);
 	if (code !== OK) return code;
-	setBranch(w.ref, w.pose.branch);
-	w.prev2Q.set(w.prevQ);
-	w.prevQ.set(w.pose.branch.q);
+	if (m.chain === CHAIN_RODS) {
+		setBranch(w.ref, w.pose.branch);
+		copy12(w.prev3Q, w.prev2Q);
+		copy12(w.prev2Q, w.prevQ);
+		copy12(w.prevQ, w.pose.branch.q);
+	} else setAngles(w.ref, w.pose.branch);
 	w.prev4P = w.prev3P;
 	w.prev4Theta = w.prev3Theta;
 	w.prev3P = w.prev2P;
@@ -193,7 +209,7 @@ function travelTo(m: CornerModel, w: Walker): number {
 /** Reset the walker to the start state at position 0; `exact` when that state satisfies the driver. */
 function restart(w: Walker, exact: boolean): void {
 	setBranch(w.ref, w.start);
-	w.prevQ.set(w.start.q);
+	copy12(w.prevQ, w.start.q);
 	w.nHist = exact ? 1 : 0;
 	w.at = 0;
 	w.prevP = 0;
@@ -204,7 +220,7 @@ function restart(w: Walker, exact: boolean): void {
 function approachRack(m: CornerModel, w: Walker, rack: number): number {
 	setBranch(w.ref, DESIGN);
 	w.ref.tau = m.strutTau0;
-	w.prevQ.set(DESIGN.q);
+	copy12(w.prevQ, DESIGN.q);
 	w.nHist = 1;
 	w.prevP = 0;
 	w.prevTheta = 0;
