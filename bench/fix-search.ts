@@ -64,4 +64,48 @@ export function run(): void {
 	line('  sweep evaluations per search', `${last.evaluations}`, '(figure)');
 	line('  time per evaluation (41-position sweep, incl. the fit)', `${perEval.toFixed(1)} µs`, '(figure)');
 	line('  toe: largest error against stock after the search', `${last.measures[0].maxAfter.toFixed(4)}°`, '<= 0.05°');
+	perKind();
+}
+
+/** A fix search of one kind: `broken` fitted back to `stock` on `measures`, with `free` coordinates (±15 mm). */
+function kindCase(stock: string, broken: string, measures: ('toe' | 'camber' | 'rocker_angle')[], free: [string, 0 | 1 | 2][]): FixSearchInput {
+	const read = (n: string) => JSON.parse(readFileSync(join(import.meta.dirname, '..', 'fixtures', `${n}.json`), 'utf8')) as CornerInput;
+	const ev = new CornerEvaluator(read(stock), GRID, measures);
+	const target = new Float64Array(measures.length * ev.count);
+	ev.evaluate([], [], target);
+	toChange(target, measures.length, ev.count, ev.design);
+	return {
+		corner: read(broken),
+		grid: GRID,
+		free: free.map(([point, axis]) => ({ point, axis, min: -15, max: 15 })),
+		measures: measures.map((key, j) => ({ key, weight: 1, target: target.subarray(j * ev.count, (j + 1) * ev.count) })),
+		starts: 5
+	};
+}
+
+/** Median (ms) of 11 searches after 3 warm-ups, and the last result. */
+function timed(req: FixSearchInput) {
+	for (let i = 0; i < 3; i++) fixSearch(req);
+	const times: number[] = [];
+	let last = fixSearch(req);
+	for (let i = 0; i < 11; i++) {
+		const t0 = performance.now();
+		last = fixSearch(req);
+		times.push(performance.now() - t0);
+	}
+	return { ms: median(times), last };
+}
+
+/** The fix search on the general model's kinds (printed per kind; no target but "not slower"). */
+export function perKind(): void {
+	console.log('  per kind, 41 positions, 5 starts:');
+	const five = timed(kindCase('single-seater-rear-left-five-link', 'single-seater-rear-left-five-link-toe-link-up', ['toe'], [['steer.inner', 1], ['steer.inner', 2]]));
+	line('  five-link: toe link up → stock toe, steer.inner y z free', `${five.ms.toFixed(1)} ms`, '(figure)');
+	line('    toe: largest error against stock after the search', `${five.last.measures[0].maxAfter.toFixed(4)}°`, '(figure)');
+	const rocker = timed(kindCase('single-seater-front-left-pushrod', 'single-seater-front-left-pushrod-softer', ['rocker_angle'], [['rocker.rod_end', 1], ['rocker.rod_end', 2]]));
+	line('  pushrod: rod joint out → stock rocker, rocker.rod_end y z', `${rocker.ms.toFixed(1)} ms`, '(figure)');
+	line('    rocker angle: largest error against stock after the search', `${rocker.last.measures[0].maxAfter.toFixed(4)}°`, '(figure)');
+	const semi = timed(kindCase('road-rear-left-semi-trailing', 'road-rear-left-semi-trailing-inner-pivot-down', ['toe', 'camber'], [['arm.rear', 2], ['arm.front', 2]]));
+	line('  semi-trailing: pivot down → stock toe, camber; arm z', `${semi.ms.toFixed(1)} ms`, '(figure)');
+	line('    toe: largest error against stock after the search', `${semi.last.measures[0].maxAfter.toFixed(4)}°`, '(figure)');
 }

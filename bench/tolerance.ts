@@ -5,7 +5,7 @@ import { readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { bundleWorker } from '../scripts/worker-bundle.mjs';
-import type { CornerInput } from '../src/lib/server/kinematics/corner';
+import { flatPoints, type CornerInput } from '../src/lib/server/kinematics/corner';
 import { endIdleWorkers, runTolerance } from '../src/lib/server/studies/parallel';
 import { LINKAGE_POINTS } from '../src/lib/server/studies/sensitivity';
 import { bands, firstOrder, nominalCurves, type ToleranceSpec } from '../src/lib/server/studies/tolerance';
@@ -52,5 +52,18 @@ export async function run(): Promise<void> {
 	await studyMs(spec, 2, code, 2); // warm the pool's workers
 	line('tolerance study, 1 warm worker thread (reused), median of 5', `${(await studyMs(spec, 1, code, 5)).toFixed(0)} ms`, '(figure)');
 	line('tolerance study, 2 warm worker threads (reused), median of 5', `${(await studyMs(spec, 2, code, 5)).toFixed(0)} ms`, '<= 200 ms');
+	console.log('  per kind, the same study (every linkage point ±0.5 mm, 2000 samples × 41 positions), 2 warm workers:');
+	for (const [name, label] of [
+		['single-seater-rear-left-five-link', 'five-link'],
+		['road-rear-left-semi-trailing', 'semi-trailing arm'],
+		['single-seater-front-left-pushrod', 'wishbone with pushrod rocker']
+	] as const) {
+		const c = JSON.parse(readFileSync(join(import.meta.dirname, '..', 'fixtures', `${name}.json`), 'utf8')) as CornerInput;
+		const all = flatPoints(c);
+		const t = LINKAGE_POINTS.filter((p) => all[p]).map((point) => ({ point, mm: 0.5, mode: 'axis' as const }));
+		const s: ToleranceSpec = { ...spec, corner: c, tolerances: t };
+		await studyMs(s, 2, code, 1);
+		line(`  ${label} (${t.length} pts), median of 5`, `${(await studyMs(s, 2, code, 5)).toFixed(0)} ms`, '(figure)');
+	}
 	await endIdleWorkers();
 }
