@@ -94,6 +94,8 @@ test("an engineer imports a five-link point list written with the trade's names"
 		'Shock bottom,-2705,540,150'
 	].join('\n');
 	await page.getByLabel('CSV file (at most 5 MB)').setInputFiles({ name: 'five-link-drawing.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+	// the team's last import may have been in inches (the page remembers it): this drawing is in mm
+	await page.getByLabel('Units in the file').selectOption('mm');
 	await page.getByRole('button', { name: 'Preview' }).click();
 	for (const [ours, theirs] of [
 		['upper_front.inner', 'Upper front link inner'],
