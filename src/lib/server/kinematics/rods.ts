@@ -8,6 +8,7 @@
 
 import { NEWTON_MAX_ITER, PARALLEL_TOL_RAD, TINY } from './constants';
 import { SPRING_ROCKER, type CornerModel } from './corner';
+import { axisCosSin, mul } from './pose';
 import type { Driver } from './solve';
 import { FAIL_CONTACT, FAIL_ROD0, OK, finishPose, springVelocity, type Branch, type Pose } from './solve';
 
@@ -137,33 +138,22 @@ function driverRow(m: CornerModel, d: Driver, p: Pose): boolean {
 	return true;
 }
 
-/** R ← Rot(φ) R for the small rotation vector φ = x[3..5] (Rodrigues' formula). */
+/** R ← Rot(φ) R for the small rotation vector φ = x[3..5] (Rodrigues' formula, pose.ts). */
 function turn(): void {
-	const wx = x[3];
-	const wy = x[4];
-	const wz = x[5];
-	const t = Math.sqrt(wx * wx + wy * wy + wz * wz);
+	const t = Math.sqrt(x[3] * x[3] + x[4] * x[4] + x[5] * x[5]);
 	if (t === 0) return;
-	const ux = wx / t;
-	const uy = wy / t;
-	const uz = wz / t;
-	const c = Math.cos(t);
-	const s = Math.sin(t);
-	const v = 1 - c;
-	dR[0] = c + v * ux * ux;
-	dR[1] = v * ux * uy - s * uz;
-	dR[2] = v * ux * uz + s * uy;
-	dR[3] = v * ux * uy + s * uz;
-	dR[4] = c + v * uy * uy;
-	dR[5] = v * uy * uz - s * ux;
-	dR[6] = v * ux * uz - s * uy;
-	dR[7] = v * uy * uz + s * ux;
-	dR[8] = c + v * uz * uz;
-	for (let i = 0; i < 3; i++) {
-		for (let j = 0; j < 3; j++) Rn[3 * i + j] = dR[3 * i] * R[j] + dR[3 * i + 1] * R[3 + j] + dR[3 * i + 2] * R[6 + j];
-	}
+	unit[0] = x[3] / t;
+	unit[1] = x[4] / t;
+	unit[2] = x[5] / t;
+	cs[0] = Math.cos(t);
+	cs[1] = Math.sin(t);
+	axisCosSin(dR, unit, cs);
+	mul(Rn, dR, R);
 	R.set(Rn);
 }
+
+const unit = new Float64Array(3);
+const cs = new Float64Array(2);
 
 /** Load the pose q (origin offset from design and rotation, as Branch.q) into O and R, re-orthonormalising R. */
 function load(m: CornerModel, q: Float64Array): void {
