@@ -69,20 +69,23 @@ export async function saveRevision(input: SaveRevision) {
 		error(400, { message: 'parentId: not a revision of this corner', code: 'invalid', field: 'parentId' });
 	}
 	const before = await latestRevision(db, corner.id);
+	// The revision, the corner's kind and the audit event commit together or not at all.
 	const revision = await appendRevision(
 		db,
 		{ cornerId: corner.id, kind: geometry.kind, geometry, label: input.label, note: input.note, parentId, authorId: userId },
-		input.upload
+		input.upload,
+		async (tx, row) => {
+			if (corner.kind !== geometry.kind) await setCornerKind(tx, corner.id, geometry.kind);
+			await recordAudit(tx, {
+				teamId: car.teamId,
+				actorId: userId,
+				action: 'revision.created',
+				subjectType: 'revision',
+				subjectId: row.id,
+				detail: { corner: corner.position, number: row.number, source: input.source, car: car.name }
+			});
+		}
 	);
-	if (corner.kind !== geometry.kind) await setCornerKind(db, corner.id, geometry.kind);
-	await recordAudit(db, {
-		teamId: car.teamId,
-		actorId: userId,
-		action: 'revision.created',
-		subjectType: 'revision',
-		subjectId: revision.id,
-		detail: { corner: corner.position, number: revision.number, source: input.source, car: car.name }
-	});
 	// Someone saved after the revision this one started from: the editor says so.
 	const supersededBy = before && parentId && before.id !== parentId ? before.number : null;
 	return { revision, supersededBy };

@@ -122,7 +122,13 @@ function isNumberRace(e: unknown) {
  * Appends a revision with the next number, and the original upload it came from if any, in one
  * transaction. Two saves at once both succeed: the loser of the unique-number race takes the next number.
  */
-export async function appendRevision(db: Database, input: NewRevision, upload?: NewUpload) {
+export async function appendRevision(
+	db: Database,
+	input: NewRevision,
+	upload?: NewUpload,
+	/** more writes that must commit with the revision or not at all (the corner's kind, the audit event) */
+	alongside?: (tx: Database, row: typeof revisions.$inferSelect) => Promise<void>
+) {
 	for (let attempt = 0; ; attempt++) {
 		try {
 			return await db.transaction(async (tx) => {
@@ -137,6 +143,7 @@ export async function appendRevision(db: Database, input: NewRevision, upload?: 
 					const sha256 = createHash('sha256').update(upload.bytes).digest('hex');
 					await tx.insert(uploads).values({ ...upload, revisionId: row.id, sizeBytes: upload.bytes.length, sha256 });
 				}
+				if (alongside) await alongside(tx as unknown as Database, row);
 				return row;
 			});
 		} catch (e) {
