@@ -41,7 +41,7 @@ function unavailable(event: RequestEvent): Response {
 }
 
 /** Any API error that is not yet in the API's shape `{ error: { code, message } }`, rewritten into it. */
-async function apiErrorShape(event: RequestEvent, response: Response): Promise<Response> {
+async function apiErrorShape(response: Response): Promise<Response> {
 	if (response.status < 400) return response;
 	const type = response.headers.get('content-type') ?? '';
 	let message = response.statusText || 'Request failed';
@@ -80,7 +80,7 @@ const guard: Handle = async ({ event, resolve }) => {
 		} else {
 			response = (await serveShareSheet(event, resolve)) ?? (await resolve(event));
 			if (event.locals.unavailable) response = unavailable(event);
-			else if (api) response = await apiErrorShape(event, response);
+			else if (api) response = await apiErrorShape(response);
 		}
 	} catch (e) {
 		if (!isDatabaseUnavailable(e)) throw e;

@@ -13,8 +13,6 @@ export interface PointInfo {
 	diagram: [number, number];
 }
 
-export const OPTIONAL_POINTS = ['spring.chassis', 'spring.body'] as const;
-
 /** The point rows of a kind: required points first, then the optional spring ends, then the rocker's when it has one. */
 export function pointsOfKind(kind: Kind, rocker = false): PointInfo[] {
 	return tablePoints(kind, rocker).map(({ name, label, description, diagram }) => ({ name, label, description, diagram }));

@@ -249,7 +249,7 @@ class RevisionRig {
 	private drawing: KindDrawing;
 
 	constructor(
-		private kind: CornerKind,
+		kind: CornerKind,
 		names: string[],
 		radius: number,
 		private look: Look,

@@ -46,16 +46,9 @@ export const ALL_POINT_NAMES: readonly string[] = [
 	...new Set([...KIND_SPECS.flatMap((k) => k.points.map((p) => p.name)), ...SPRING_POINTS.map((p) => p.name), ...ROCKER_POINTS.map((p) => p.name)])
 ];
 
-/** The spec of point `name` (any kind), or undefined. */
-export function pointSpec(name: string, kind?: string): PointSpec | undefined {
-	const own = kind ? kindSpec(kind).points.find((p) => p.name === name) : undefined;
-	if (own) return own;
-	for (const k of KIND_SPECS) {
-		const p = k.points.find((q) => q.name === name);
-		if (p) return p;
-	}
-	return [...SPRING_POINTS, ...ROCKER_POINTS].find((p) => p.name === name);
-}
+/** Points whose placement a fabricator sets (chassis brackets, upright joints, the rocker's): every kind's points
+ * less the wheel's spin axis and the spring ends. The fix search may move them and the tolerance study spreads them. */
+export const LINKAGE_POINT_NAMES: readonly string[] = ALL_POINT_NAMES.filter((p) => !p.startsWith('wheel.') && !p.startsWith('spring.'));
 
 /** The `rocker` block's key of a table name (`rocker.rod_end` → `rod_end`), or null. */
 export function rockerKey(name: string): (typeof ROCKER_KEYS)[number] | null {
@@ -78,11 +71,15 @@ export function splitRocker(points: Record<string, P>, rodOn: string | null): { 
 	return { points: own, rocker: { ...block, rod_on: rodOn } };
 }
 
-/** The point table's flat points of a corner file: its points plus the rocker block's under `rocker.*`. */
-export function joinRocker(points: Record<string, P>, rocker: Record<string, unknown> | null | undefined): Record<string, P> {
+/**
+ * The point table's flat points of a corner file: its points plus the rocker block's under `rocker.*`. A point
+ * already under its table name wins (the analyses offset points there).
+ */
+export function joinRocker(points: Record<string, P>, rocker: object | null | undefined): Record<string, P> {
 	if (!rocker) return points;
+	const block = rocker as Record<string, unknown>;
 	const out = { ...points };
-	for (const k of ROCKER_KEYS) if (Array.isArray(rocker[k])) out[`rocker.${k}`] = rocker[k] as P;
+	for (const k of ROCKER_KEYS) if (!out[`rocker.${k}`] && Array.isArray(block[k])) out[`rocker.${k}`] = block[k] as P;
 	return out;
 }
 

@@ -1,10 +1,10 @@
 // Inputs of the analyses of a revision: fix search, sensitivity, tolerance study, adopted tolerances.
 // Client-safe: zod only. Lengths in mm, angles in degrees, travel = heave wheel travel (+ bump).
 import { z } from 'zod';
-import { ALL_POINT_NAMES } from '../kinds';
+import { LINKAGE_POINT_NAMES } from '../kinds';
 
 /** Points a fix may move or a tolerance may apply to: every kind's linkage and rocker points, not the wheel or the spring ends. */
-export const MOVABLE_POINTS: readonly string[] = ALL_POINT_NAMES.filter((p) => !p.startsWith('wheel.') && !p.startsWith('spring.'));
+export const MOVABLE_POINTS = LINKAGE_POINT_NAMES;
 export const FIT_MEASURES = ['toe', 'camber', 'caster', 'kpi', 'rc_height', 'half_track_change', 'motion_ratio', 'rocker_angle'] as const;
 export type FitMeasureKey = (typeof FIT_MEASURES)[number];
 export const AXIS_NAMES = ['x', 'y', 'z'] as const;

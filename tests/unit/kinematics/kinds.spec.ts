@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { kindSpec, splitRocker, templateFor } from '../../../src/lib/kinds';
 import { parseCornerGeometry } from '../../../src/lib/schemas/geometry';
 import { CornerGeometryError, solveSweep, SweepOptionsError, type CornerInput, type Sample, type SweepKind } from '../../../src/lib/server/kinematics/index';
-import { clone, DEG, fixture } from './helpers';
+import { clone, DEG, fixture, planarCorner } from './helpers';
 
 /** A corner of `kind` from its template. */
 function template(kind: string): CornerInput {
@@ -80,11 +80,23 @@ describe('five-link built as a disguised double wishbone (derived here: two rods
 		});
 	}
 
-	it('without bump steer the motion instant centres agree with the arm planes (planar motion)', () => {
-		// the planar corner of helpers turns only about x; its fvic from arm planes is (-1500, 0)
-		const c = disguised(fixture('club-fwd-front-left'));
-		const r = solveSweep(c, { sweep: 'heave', from: 0, to: 0, step: 1 });
-		expect(r.samples[0].fvic).not.toBeNull();
+	it('without bump steer (planar motion) the motion instant centres are the arm planes\' ones, at full bump and rebound too', () => {
+		// the planar corner of helpers.ts turns only about x: the upright's instant centre in the front view is where
+		// the two arm lines meet (Kennedy's theorem of three centres), which the double wishbone constructs from arm planes
+		const dw = planarCorner();
+		dw.spring_on = 'upright';
+		const a = solveSweep(dw, { sweep: 'heave', from: -60, to: 60, step: 30 });
+		const b = solveSweep(disguised(dw), { sweep: 'heave', from: -60, to: 60, step: 30 });
+		expect(a.samples.length).toBe(5);
+		a.samples.forEach((s, i) => {
+			const m = b.samples[i];
+			expect(Math.abs(m.fvic![0] - s.fvic![0]), `fvic y at ${s.travel}`).toBeLessThan(1e-6);
+			expect(Math.abs(m.fvic![1] - s.fvic![1]), `fvic z at ${s.travel}`).toBeLessThan(1e-6);
+			expect(Math.abs(m.rc_height! - s.rc_height!)).toBeLessThan(1e-6);
+		});
+		// design: the arm lines were built to meet at (-1500, 0) (helpers.ts)
+		expect(Math.abs(b.samples[2].fvic![0] + 1500)).toBeLessThan(1e-6);
+		expect(Math.abs(b.samples[2].fvic![1])).toBeLessThan(1e-6);
 	});
 });
 

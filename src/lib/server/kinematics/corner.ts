@@ -3,7 +3,7 @@
 // The plan compiler's second half: a kind's description plus a corner's points → the model the
 // solve steps work on (circles, body vectors, rods, the rocker), once per geometry.
 
-import { kindSpec, ROCKER_KEYS, type BodyName, type KindSpec } from '../../kinds';
+import { joinRocker, kindSpec, ROCKER_POINTS, SPRING_POINTS, type BodyName, type KindSpec } from '../../kinds';
 import { TINY, ZERO_LENGTH_MM } from './constants';
 import { CHAIN_ARMS, CHAIN_REVOLUTE, CHAIN_RODS, CHAIN_SLIDER, planOf, type Plan } from './plan';
 import { copy, cross, dot, len, normalize, sub, vec3, type Vec3 } from './vec3';
@@ -179,12 +179,7 @@ export interface CornerFault {
 
 /** The corner's points with the rocker block's points under their table names (`rocker.pivot_a`, ...). */
 export function flatPoints(input: CornerInput): Record<string, PointTuple> {
-	const r = input.rocker;
-	if (!r) return input.points;
-	const out: Record<string, PointTuple> = { ...input.points };
-	// a point already under its table name wins (the analyses offset points there)
-	for (const k of ROCKER_KEYS) out[`rocker.${k}`] = input.points[`rocker.${k}`] ?? r[k];
-	return out;
+	return joinRocker(input.points, input.rocker);
 }
 
 /** The circle `point` sweeps about the axis front→rear (mm); null when the arm has zero length. */
@@ -454,11 +449,7 @@ function bodyCode(m: CornerModel, body: BodyName, name: string, input: CornerInp
 
 /** The per-sample point list: the kind's points, the spring's, the rocker's, each with its body. */
 function buildOutPoints(m: CornerModel, spec: KindSpec, input: CornerInput): void {
-	const names: { name: string; body: BodyName }[] = spec.points.map((p) => ({ name: p.name, body: p.body }));
-	if (m.points['spring.chassis']) names.push({ name: 'spring.chassis', body: 'chassis' }, { name: 'spring.body', body: 'upright' });
-	if (input.rocker) {
-		for (const k of ROCKER_KEYS) names.push({ name: `rocker.${k}`, body: k.startsWith('pivot') ? 'chassis' : k === 'rod_outer' ? 'upright' : 'rocker' });
-	}
+	const names = [...spec.points, ...(m.points['spring.chassis'] ? SPRING_POINTS : []), ...(input.rocker ? ROCKER_POINTS : [])];
 	for (const { name, body } of names) {
 		const p = m.points[name];
 		const code = bodyCode(m, body, name, input);

@@ -109,7 +109,7 @@ function rodRows(m: CornerModel, rack: number, p: Pose): number {
 }
 
 /** Row 5 of J and g: the driver (wheel-centre height, or the contact point on a rolled ground). False when the wheel lies flat. */
-function driverRow(m: CornerModel, d: Driver, p: Pose): boolean {
+function driverRow(m: CornerModel, d: Driver): boolean {
 	if (d.mode === 0) {
 		g[5] = O[2] - d.targetZ;
 		J[30] = 0;
@@ -191,7 +191,7 @@ function newton(m: CornerModel, d: Driver, p: Pose, start: Float64Array): number
 	load(m, start);
 	for (let iter = 0; iter < NEWTON_MAX_ITER; iter++) {
 		const worst = rodRows(m, p.rack, p);
-		if (!driverRow(m, d, p)) return FAIL_CONTACT;
+		if (!driverRow(m, d)) return FAIL_CONTACT;
 		if (worst < RODS_TOL_MM && Math.abs(g[5]) < RODS_TOL_MM) return OK;
 		for (let i = 0; i < 6; i++) x[i] = -g[i];
 		if (!solve6(J, x)) return -1;
@@ -280,7 +280,7 @@ function diagnose(m: CornerModel, d: Driver, p: Pose, ref: Branch): number {
 	let lambda = 1e-3;
 	for (let iter = 0; iter < 200; iter++) {
 		rodRows(m, p.rack, p);
-		if (!driverRow(m, d, p)) return FAIL_CONTACT;
+		if (!driverRow(m, d)) return FAIL_CONTACT;
 		// normal equations (JᵀWJ + λ I) x = −JᵀW g, driver weighted 1e3
 		for (let i = 0; i < 6; i++) {
 			let bi = 0;

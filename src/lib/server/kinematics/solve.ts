@@ -101,8 +101,7 @@ export class Pose {
 	/** unit spin axis, outboard */
 	readonly a = vec3();
 	readonly S = vec3();
-	/** strut.lower and the unit strut axis (strut only) */
-	readonly SL = vec3();
+	/** the unit strut axis (strut only) */
 	readonly d = vec3();
 	readonly B = vec3();
 	springLength = 0;
@@ -113,8 +112,6 @@ export class Pose {
 	readonly da = vec3();
 	readonly dB = vec3();
 	readonly dK = vec3();
-	readonly dT = vec3();
-	readonly dSL = vec3();
 	readonly dd = vec3();
 	dPhi = 0;
 	dSpringLength = 0;
@@ -386,10 +383,7 @@ function placeBodies(m: CornerModel, p: Pose): void {
 	place(p.T, p.R, m.bodyT, p.L);
 	place(p.W, p.R, m.bodyW, p.L);
 	rotate(p.a, p.R, m.spinAxis0);
-	if (m.chain === CHAIN_SLIDER) {
-		place(p.SL, p.R, m.bodySL, p.L);
-		rotate(p.d, p.R, m.strutAxis0);
-	}
+	if (m.chain === CHAIN_SLIDER) rotate(p.d, p.R, m.strutAxis0);
 	if (m.springOn === SPRING_NONE || m.springOn === SPRING_ROCKER) return;
 	if (m.springOn === SPRING_UPRIGHT) place(p.B, p.R, m.bodySpring, p.L);
 	else if (m.springOn === SPRING_LOWER) onCircle(p.B, m.springBody, p.csTheta);

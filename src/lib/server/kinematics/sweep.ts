@@ -89,58 +89,56 @@ class Walker {
 const walker = new Walker();
 const DESIGN = new Branch();
 
-/** Set w.pose.guess: θ (rad) at w.at extrapolated from the last one to four solutions. */
-function predict(m: CornerModel, w: Walker): void {
-	if (m.chain === CHAIN_RODS) return predictPose(w);
-	const x = w.at;
-	const p1 = w.prevP;
-	const p2 = w.prev2P;
-	const p3 = w.prev3P;
-	const t1 = w.prevTheta;
-	const t2 = w.prev2Theta;
-	const t3 = w.prev3Theta;
-	if (w.nHist < 2 || p1 === p2) {
-		w.pose.guess = w.nHist >= 1 ? t1 : w.ref.theta;
-	} else if (w.nHist < 3 || p3 === p1 || p3 === p2) {
-		w.pose.guess = t1 + ((t1 - t2) * (x - p1)) / (p1 - p2);
-	} else if (w.nHist < 4 || w.prev4P === p1 || w.prev4P === p2 || w.prev4P === p3) {
-		// Lagrange quadratic through the last three solved positions
-		const l1 = ((x - p2) * (x - p3)) / ((p1 - p2) * (p1 - p3));
-		const l2 = ((x - p1) * (x - p3)) / ((p2 - p1) * (p2 - p3));
-		const l3 = ((x - p1) * (x - p2)) / ((p3 - p1) * (p3 - p2));
-		w.pose.guess = l1 * t1 + l2 * t2 + l3 * t3;
-	} else {
-		// Lagrange cubic through the last four: on a 1 mm grid its error is about a tenth of the quadratic's
-		const p4 = w.prev4P;
-		const t4 = w.prev4Theta;
-		const l1 = ((x - p2) * (x - p3) * (x - p4)) / ((p1 - p2) * (p1 - p3) * (p1 - p4));
-		const l2 = ((x - p1) * (x - p3) * (x - p4)) / ((p2 - p1) * (p2 - p3) * (p2 - p4));
-		const l3 = ((x - p1) * (x - p2) * (x - p4)) / ((p3 - p1) * (p3 - p2) * (p3 - p4));
-		const l4 = ((x - p1) * (x - p2) * (x - p3)) / ((p4 - p1) * (p4 - p2) * (p4 - p3));
-		w.pose.guess = l1 * t1 + l2 * t2 + l3 * t3 + l4 * t4;
+const hist = new Float64Array(4);
+/** Lagrange weights of the last solved positions at w.at (newest first). */
+const lw = new Float64Array(4);
+
+/**
+ * Fill lw with the Lagrange weights at w.at of the last `most` (≤ 4) solved positions, fewer when the history is
+ * shorter or two positions coincide; returns how many are used (0: no history). Cubic through four points on a
+ * 1 mm grid errs about a tenth of the quadratic.
+ */
+function weights(w: Walker, most: number): number {
+	hist[0] = w.prevP;
+	hist[1] = w.prev2P;
+	hist[2] = w.prev3P;
+	hist[3] = w.prev4P;
+	let n = Math.min(w.nHist, most);
+	for (let k = 1; k < n; k++) {
+		for (let j = 0; j < k; j++) if (hist[k] === hist[j]) n = k;
 	}
+	const x = w.at;
+	for (let i = 0; i < n; i++) {
+		let l = 1;
+		for (let j = 0; j < n; j++) if (j !== i) l *= (x - hist[j]) / (hist[i] - hist[j]);
+		lw[i] = l;
+	}
+	return n;
 }
 
-/** Rods chain: w.pose.guessQ extrapolated from the last two or three solved poses (Newton re-orthonormalises). */
+/** Set w.pose.guess: θ (rad) at w.at extrapolated from the last one to four solutions (the rods chain: its pose). */
+function predict(m: CornerModel, w: Walker): void {
+	if (m.chain === CHAIN_RODS) return predictPose(w);
+	const n = weights(w, 4);
+	if (n === 0) {
+		w.pose.guess = w.ref.theta;
+		return;
+	}
+	let g = lw[0] * w.prevTheta;
+	if (n > 1) g += lw[1] * w.prev2Theta;
+	if (n > 2) g += lw[2] * w.prev3Theta;
+	if (n > 3) g += lw[3] * w.prev4Theta;
+	w.pose.guess = g;
+}
+
+/** Rods chain: w.pose.guessQ extrapolated from the last one to three solved poses (Newton re-orthonormalises). */
 function predictPose(w: Walker): void {
 	const g = w.pose.guessQ;
-	const x = w.at;
-	const p1 = w.prevP;
-	const p2 = w.prev2P;
-	const p3 = w.prev3P;
-	if (w.nHist < 2 || p1 === p2) {
-		copy12(g, w.ref.q);
-		return;
-	}
-	if (w.nHist < 3 || p3 === p1 || p3 === p2) {
-		const t = (x - p1) / (p1 - p2);
-		for (let i = 0; i < 12; i++) g[i] = w.prevQ[i] + t * (w.prevQ[i] - w.prev2Q[i]);
-		return;
-	}
-	// Lagrange quadratic through the last three poses
-	const l1 = ((x - p2) * (x - p3)) / ((p1 - p2) * (p1 - p3));
-	const l2 = ((x - p1) * (x - p3)) / ((p2 - p1) * (p2 - p3));
-	const l3 = ((x - p1) * (x - p2)) / ((p3 - p1) * (p3 - p2));
+	const n = weights(w, 3);
+	if (n === 0) return copy12(g, w.ref.q);
+	const l1 = lw[0];
+	const l2 = n > 1 ? lw[1] : 0;
+	const l3 = n > 2 ? lw[2] : 0;
 	for (let i = 0; i < 12; i++) g[i] = l1 * w.prevQ[i] + l2 * w.prev2Q[i] + l3 * w.prev3Q[i];
 }
 

@@ -2,13 +2,12 @@
 // Sensitivity: the derivative of each measure with respect to each point coordinate, by central
 // differences of the whole heave sweep, ranked so the engineer sees which points matter.
 
-import { ALL_POINT_NAMES } from '../../kinds';
+import { LINKAGE_POINT_NAMES } from '../../kinds';
 import { flatPoints, type CornerInput } from '../kinematics/corner';
 import { AXES, CornerEvaluator, toChange, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 
-/** Points whose placement a fabricator sets (chassis brackets, upright joints, the rocker's): every kind's points,
- * less the wheel's spin axis and the spring ends, in the kinds' order. */
-export const LINKAGE_POINTS = ALL_POINT_NAMES.filter((p) => !p.startsWith('wheel.') && !p.startsWith('spring.'));
+/** Points whose placement a fabricator sets, in the kinds' order (the kinds' list). */
+export const LINKAGE_POINTS = LINKAGE_POINT_NAMES;
 
 /** Scalar figures ranked: change over the range (value at `to` minus value at `from`) or the design value. */
 export const SCALAR_MEASURES = {
