@@ -3,7 +3,7 @@
 // constructions made here, independently of the engine's chains.
 
 import { describe, expect, it } from 'vitest';
-import { kindSpec, splitRocker, templateFor } from '../../../src/lib/kinds';
+import { CORNER_KINDS, KIND_SPECS, kindSpec, splitRocker, templateFor } from '../../../src/lib/kinds';
 import { parseCornerGeometry } from '../../../src/lib/schemas/geometry';
 import { CornerGeometryError, solveSweep, SweepOptionsError, type CornerInput, type Sample, type SweepKind } from '../../../src/lib/server/kinematics/index';
 import { clone, DEG, fixture, planarCorner } from './helpers';
@@ -334,4 +334,10 @@ describe('templates placed for a corner', () => {
 			}
 		});
 	}
+});
+
+describe('the list of kinds', () => {
+	it('CORNER_KINDS (the literal list zod and the database need) names the descriptions, in their order', () => {
+		expect([...CORNER_KINDS]).toEqual(KIND_SPECS.map((k) => k.kind));
+	});
 });
