@@ -79,7 +79,7 @@ export const SPRING_POINTS: readonly PointSpec[] = [
 		description: 'Chassis end of the spring or damper.',
 		body: 'chassis',
 		diagram: [50, 14],
-		aliases: ['damper chassis', 'shock top', 'spring top', 'coilover top']
+		aliases: ['damper chassis', 'damper top', 'damper upper', 'shock top', 'shock upper', 'spring top', 'spring upper', 'coilover top']
 	},
 	{
 		name: 'spring.body',
@@ -87,7 +87,7 @@ export const SPRING_POINTS: readonly PointSpec[] = [
 		description: 'Moving end of the spring or damper, on the body named by "spring on". Not used when a rocker works the spring.',
 		body: 'upright',
 		diagram: [56, 72],
-		aliases: ['damper lower', 'shock bottom', 'spring bottom', 'coilover bottom']
+		aliases: ['damper lower', 'damper bottom', 'damper bot', 'shock lower', 'shock bottom', 'shock bot', 'spring lower', 'spring bottom', 'spring bot', 'coilover bottom']
 	}
 ];
 

@@ -126,5 +126,8 @@ describe("the trade's names of the general model's kinds (the kinds' aliases)", 
 		expect(guessPointName('rocker damper')).toBe('rocker.spring_end');
 		expect(guessPointName('lower_front.inner')).toBe('lower_front.inner');
 		expect(guessPointName('FRONT')).toBeNull();
+		// both spring ends or neither: a scanner's SPRING_TOP / SPRING_BOT pair maps as a pair
+		expect(guessPointName('SPRING_TOP')).toBe('spring.chassis');
+		expect(guessPointName('SPRING_BOT')).toBe('spring.body');
 	});
 });
