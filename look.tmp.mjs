@@ -18,7 +18,7 @@ await page.goto(base + '/corners/00000000-0000-4000-8000-0000000000f1/import'); 
 await page.getByLabel('CSV file (at most 5 MB)').setInputFiles('fixtures/club-fwd-front-left-scan-inches.csv');
 await page.getByLabel('Units in the file').selectOption('in');
 await page.getByRole('button', { name: 'Preview' }).click();
-await page.waitForTimeout(4000); await shot('2-import-preview-a');
+await page.getByTestId('alignment').waitFor();
 await shot('2-import-preview');
 await page.getByLabel('Label').fill('scan import');
 await page.getByRole('button', { name: 'Save as new revision' }).click();
@@ -40,7 +40,7 @@ const before = await page.content();
 await page.getByRole('button', { name: /Create link|Create share link|Make link/ }).first().click();
 await page.waitForTimeout(2000);
 await shot('6-share-created');
-const url = await page.locator('input[readonly], code').filter({ hasText: /\/s\// }).first().textContent().catch(() => null) ?? await page.locator('input[value*="/s/"]').first().inputValue().catch(() => null);
+const url = await page.evaluate(() => [...document.querySelectorAll('input')].map((i) => i.value).find((v) => v.includes('/s/')) ?? null);
 console.log('share url', url);
 if (url) {
   const anon = await browser.newPage({ viewport: { width: 1440, height: 900 } });

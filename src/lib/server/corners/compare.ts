@@ -67,7 +67,9 @@ export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: 
 	const sb = solveCorner(b, sweep);
 	const pa = samplesAt(a, positions);
 	const pb = samplesAt(b, positions);
-	const figures = TARGET_MEASURES.map((key) => ({
+	// a measure neither corner has (a rocker angle without a rocker, caster without a steering axis) is left out
+	const applies = (key: TargetMeasure) => [...sa.samples, ...sb.samples].some((x) => valueOf(x, key) !== null);
+	const figures = TARGET_MEASURES.filter(applies).map((key) => ({
 		key,
 		...measureWords(key),
 		rows: positions.map((travel, i) => {
