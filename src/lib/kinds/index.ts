@@ -103,3 +103,20 @@ export function templateFor(kind: string, position: string, wheelbase: number | 
 	) as Record<string, P>;
 	return { kind, points, spring_on: t.spring_on, rod_on: withRocker ? t.rocker!.rod_on : null, tyre: { ...t.tyre } };
 }
+
+/** The measures that need a steering axis (null on a kind without one: contract, "More kinds"). */
+const AXIS_MEASURES = ['caster', 'kpi', 'scrub_radius', 'trail'];
+
+/**
+ * The measures a corner of `kind` with these points (the table's flat points, rocker ones included) cannot have:
+ * the steering-axis figures without an axis, the rocker angle without a rocker, the motion ratio without a spring.
+ * Pickers and the analyses leave them out rather than solve for a curve that is null everywhere.
+ */
+export function measuresNotApplying(kind: string, points: Record<string, unknown>): Set<string> {
+	const out = new Set<string>();
+	if (kindSpec(kind).steeringAxis.type === 'none') for (const m of AXIS_MEASURES) out.add(m);
+	const rocker = !!points['rocker.pivot_a'];
+	if (!rocker) out.add('rocker_angle');
+	if (!points['spring.chassis'] || (!rocker && !points['spring.body'])) out.add('motion_ratio');
+	return out;
+}

@@ -1,5 +1,6 @@
 // Chart helpers: points from contract samples, nice ticks, read-out values, paths, bands, CSV and formatting.
 
+import { measuresNotApplying } from '../../../src/lib/kinds';
 import { describe, expect, it } from 'vitest';
 import { buildCsv } from '../../../src/lib/components/charts/chart-csv';
 import {
@@ -236,11 +237,12 @@ describe('measures', () => {
 	});
 
 	it('a corner without a steering axis charts no caster, KPI, scrub or trail; the rocker angle only with a rocker', () => {
-		const semi = measuresFor('heave', { steeringAxis: false }).map((m) => m.key);
+		const semi = measuresFor('heave', measuresNotApplying('semi_trailing', { 'spring.chassis': [0, 0, 0], 'spring.body': [0, 0, 0] })).map((m) => m.key);
 		for (const k of ['caster', 'kpi', 'scrub_radius', 'trail'] as const) expect(semi).not.toContain(k);
 		expect(semi).toContain('camber');
 		expect(measuresFor('heave').map((m) => m.key)).not.toContain('rocker_angle');
-		expect(measuresFor('heave', { rocker: true }).map((m) => m.key)).toContain('rocker_angle');
+		expect(measuresFor('heave', measuresNotApplying('double_wishbone', { 'rocker.pivot_a': [0, 0, 0], 'spring.chassis': [0, 0, 0] })).map((m) => m.key)).toContain('rocker_angle');
+		expect(measuresFor('heave', measuresNotApplying('double_wishbone', {})).map((m) => m.key)).not.toContain('motion_ratio');
 	});
 
 	it('roll-centre height is heave only, camber to ground roll only (contract)', () => {

@@ -62,13 +62,12 @@ export const SWEEP_AXES: Record<SweepKind, { key: SweepKey; label: string; unit:
 	steer: { key: 'rack', label: 'Rack travel, + to the left', unit: 'mm' }
 };
 
-/** Measures that need a steering axis (none on a semi-trailing arm) or a rocker. */
-const NEEDS_AXIS: readonly MeasureKey[] = ['caster', 'kpi', 'scrub_radius', 'trail'];
-
-/** The measures defined in a sweep, in display order; `corner` leaves out what this corner cannot have. */
-export function measuresFor(sweep: SweepKind, corner: { steeringAxis?: boolean; rocker?: boolean } = {}): Measure[] {
-	const { steeringAxis = true, rocker = false } = corner;
-	return MEASURES.filter((m) => m.sweeps.includes(sweep) && (steeringAxis || !NEEDS_AXIS.includes(m.key)) && (rocker || m.key !== 'rocker_angle'));
+/**
+ * The measures defined in a sweep, in display order, less those the corner cannot have (`missing`, from
+ * `measuresNotApplying` in $lib/kinds; by default the rocker angle, which only a rocker gives).
+ */
+export function measuresFor(sweep: SweepKind, missing: ReadonlySet<string> = new Set(['rocker_angle'])): Measure[] {
+	return MEASURES.filter((m) => m.sweeps.includes(sweep) && !missing.has(m.key));
 }
 
 /** The measure with this key; throws on an unknown key (a programming error). */

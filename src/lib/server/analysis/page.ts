@@ -23,6 +23,7 @@ export async function loadAnalysisPage(event: RequestEvent<{ cornerId: string }>
 		revisions: list.map((r) => ({ id: r.id, number: r.number, label: r.label })),
 		revision: { id: revision.id, number: revision.number, label: revision.label },
 		points: joinRocker(geometry.points, geometry.rocker),
+		kind: revision.kind,
 		targets: targetsSchema.catch([]).parse(car.targets),
 		canEdit: can(role, 'edit')
 	};

@@ -1,6 +1,6 @@
 // The app's side of the analyses: request → engine input, engine result → JSON, engine failures → 400s.
 // The maths lives in $lib/server/kinematics; this file only translates.
-import { joinRocker, splitRocker } from '$lib/kinds';
+import { joinRocker, measuresNotApplying, splitRocker } from '$lib/kinds';
 import { error } from '@sveltejs/kit';
 import { AXIS_NAMES, MOVABLE_POINTS, type FixSearchRequest, type ToleranceStudyRequest } from '$lib/schemas/analysis';
 import type { CornerGeometry } from '$lib/schemas/geometry';
@@ -18,6 +18,12 @@ function needPoint(geometry: CornerGeometry, point: string, field: string): void
 	if (!joinRocker(geometry.points, geometry.rocker)[point]) error(400, { message: `${field}: this corner has no point ${point}`, code: 'invalid', field });
 }
 
+/** Stops with 400 naming `field` when the corner has no such measure (a rocker angle without a rocker, caster without a steering axis). */
+function needMeasure(geometry: CornerGeometry, measure: string, field: string): void {
+	if (measuresNotApplying(geometry.kind, joinRocker(geometry.points, geometry.rocker)).has(measure))
+		error(400, { message: `${field}: this corner has no ${measure.replace('_', ' ')} (its kind or its points do not give one)`, code: 'invalid', field });
+}
+
 /** Stops with 400 when the corner cannot be solved over the whole travel as it is. */
 function evaluatorOrFail(geometry: CornerGeometry, travel: { from: number; to: number; step: number }, measures: CurveMeasure[]): CornerEvaluator {
 	try {
@@ -30,6 +36,7 @@ function evaluatorOrFail(geometry: CornerGeometry, travel: { from: number; to: n
 /** Runs a fix search on `geometry`; `targetGeometry` is the revision whose curves are the target (or null). */
 export function runFixSearch(geometry: CornerGeometry, input: FixSearchRequest, targetGeometry: CornerGeometry | null): FixSearchResult & { note: string } {
 	input.free.forEach((f, i) => needPoint(geometry, f.point, `free.${i}.point`));
+	input.measures.forEach((m, i) => needMeasure(geometry, m.key, `measures.${i}.key`));
 	const keys = input.measures.map((m) => m.key);
 	const n = evaluatorOrFail(geometry, input.travel, keys).count;
 	let targets: Float64Array | null = null;
@@ -52,13 +59,14 @@ export function runFixSearch(geometry: CornerGeometry, input: FixSearchRequest, 
 
 /** Sensitivity of the corner over the travel. */
 export function runSensitivity(geometry: CornerGeometry, travel: { from: number; to: number; step: number }) {
-	evaluatorOrFail(geometry, travel, ['toe', 'camber', 'rc_height', 'caster', 'kpi']);
+	evaluatorOrFail(geometry, travel, ['toe', 'camber', 'rc_height']);
 	return sensitivity(geometry, travel);
 }
 
 /** The engine spec of a tolerance study request on `geometry`. */
 export function toleranceSpec(geometry: CornerGeometry, input: ToleranceStudyRequest): ToleranceSpec {
 	for (const p of Object.keys(input.points)) needPoint(geometry, p, `points.${p}`);
+	needMeasure(geometry, input.target.measure, 'target.measure');
 	const measures: CurveMeasure[] = ['toe', 'camber'];
 	if (!measures.includes(input.target.measure)) measures.push(input.target.measure);
 	evaluatorOrFail(geometry, input.travel, measures);

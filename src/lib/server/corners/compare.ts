@@ -1,5 +1,5 @@
 // Revision A against revision B: which points moved, and how each figure changed through heave.
-import { joinRocker } from '$lib/kinds';
+import { joinRocker, measuresNotApplying } from '$lib/kinds';
 import type { CornerGeometry } from '$lib/schemas/geometry';
 import { judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure } from '$lib/schemas/targets';
 import type { Sample } from '$lib/server/kinematics';
@@ -68,7 +68,9 @@ export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: 
 	const pa = samplesAt(a, positions);
 	const pb = samplesAt(b, positions);
 	// a measure neither corner has (a rocker angle without a rocker, caster without a steering axis) is left out
-	const applies = (key: TargetMeasure) => [...sa.samples, ...sb.samples].some((x) => valueOf(x, key) !== null);
+	const missingA = measuresNotApplying(a.kind, joinRocker(a.points, a.rocker));
+	const missingB = measuresNotApplying(b.kind, joinRocker(b.points, b.rocker));
+	const applies = (key: TargetMeasure) => !missingA.has(key) || !missingB.has(key);
 	const figures = TARGET_MEASURES.filter(applies).map((key) => ({
 		key,
 		...measureWords(key),

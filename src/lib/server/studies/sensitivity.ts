@@ -2,7 +2,7 @@
 // Sensitivity: the derivative of each measure with respect to each point coordinate, by central
 // differences of the whole heave sweep, ranked so the engineer sees which points matter.
 
-import { LINKAGE_POINT_NAMES } from '../../kinds';
+import { LINKAGE_POINT_NAMES, measuresNotApplying } from '../../kinds';
 import { flatPoints, type CornerInput } from '../kinematics/corner';
 import { AXES, CornerEvaluator, toChange, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 
@@ -85,9 +85,11 @@ export interface SensitivityResult {
 	failed: { point: string; axis: 'x' | 'y' | 'z' }[];
 }
 
-/** Sensitivity of every scalar figure to every linkage coordinate (or `coords`), ranked. */
+/** Sensitivity of every scalar figure the corner has to every linkage coordinate (or `coords`), ranked. */
 export function sensitivity(corner: CornerInput, grid: HeaveGrid, coords = linkageCoordinates(corner)): SensitivityResult {
-	const curves: CurveMeasure[] = ['toe', 'camber', 'rc_height', 'caster', 'kpi'];
+	const missing = measuresNotApplying(corner.kind, flatPoints(corner));
+	const curves = (['toe', 'camber', 'rc_height', 'caster', 'kpi'] as CurveMeasure[]).filter((m) => !missing.has(m));
+	const keys = SCALAR_KEYS.filter((k) => curves.includes(SCALAR_MEASURES[k].curve));
 	const ev = new CornerEvaluator(corner, grid, curves);
 	const n = ev.count;
 	const M = curves.length;
@@ -99,13 +101,13 @@ export function sensitivity(corner: CornerInput, grid: HeaveGrid, coords = linka
 		const j = curves.indexOf(s.curve);
 		return s.basis === 'range' ? v[j * n + n - 1] - v[j * n] : v[j * n + ev.design];
 	};
-	const derivs = SCALAR_KEYS.map(() => new Float64Array(coords.length));
+	const derivs = keys.map(() => new Float64Array(coords.length));
 	const failed: SensitivityResult['failed'] = [];
 	coords.forEach((c, i) => {
 		if (!(ev.evaluate([c], [h], plus) && ev.evaluate([c], [-h], minus))) return void failed.push({ point: c.point, axis: AXES[c.axis] });
-		SCALAR_KEYS.forEach((key, q) => (derivs[q][i] = (figure(plus, key) - figure(minus, key)) / (2 * h)));
+		keys.forEach((key, q) => (derivs[q][i] = (figure(plus, key) - figure(minus, key)) / (2 * h)));
 	});
-	const rankings = SCALAR_KEYS.map((key, q): SensitivityRanking => {
+	const rankings = keys.map((key, q): SensitivityRanking => {
 		const ranked = coords
 			.map((c, i) => ({ point: c.point, axis: AXES[c.axis], derivative: derivs[q][i] }))
 			.sort((a, b) => Math.abs(b.derivative) - Math.abs(a.derivative));
