@@ -58,7 +58,7 @@ export async function serveShareSheet(event: RequestEvent, resolve: (e: RequestE
 	if (matches(event.request, etag)) return new Response(null, { status: 304, headers });
 	const anonymous = !hasCredentials(event.request);
 	const kept = anonymous ? pages.get(etag) : undefined;
-	if (kept) return new Response(kept.body.slice(), { status: 200, headers: kept.headers });
+	if (kept) return new Response(kept.body, { status: 200, headers: kept.headers }); // the Response copies it
 	const response = await resolve(event);
 	if (response.status !== 200) return response;
 	response.headers.set('etag', etag);
@@ -67,5 +67,5 @@ export async function serveShareSheet(event: RequestEvent, resolve: (e: RequestE
 	const rendered: Rendered = { body, headers: [...response.headers] };
 	pages.set(etag, rendered);
 	while (pages.size > PAGES_MAX) pages.delete(pages.keys().next().value!);
-	return new Response(body.slice(), { status: 200, headers: rendered.headers });
+	return new Response(body, { status: 200, headers: rendered.headers });
 }

@@ -33,6 +33,18 @@ export type Opened = NonNullable<Awaited<ReturnType<typeof shareToOpen>>>;
 const LOOKUP_TTL_MS = 1000;
 const lookups = new Map<string, { at: number; row: Promise<Opened | null> }>();
 
+/** Token hashes of the last few hundred tokens opened (hashing each opening anew was a tenth of a cached opening). */
+const hashes = new Map<string, string>();
+function hashOf(token: string) {
+	let h = hashes.get(token);
+	if (h === undefined) {
+		h = hashToken(token);
+		if (hashes.size >= 500) hashes.delete(hashes.keys().next().value!);
+		hashes.set(token, h);
+	}
+	return h;
+}
+
 async function lookUp(tokenHash: string): Promise<Opened | null> {
 	const now = Date.now();
 	const hit = lookups.get(tokenHash);
@@ -54,7 +66,7 @@ export function forgetShare(tokenHash: string) {
  * revoked, 410 when expired, 429 when one client opens it too often.
  */
 export async function openShare(token: string, clientAddress: string, { count = true } = {}): Promise<Opened> {
-	const found = await lookUp(hashToken(token));
+	const found = await lookUp(hashOf(token));
 	if (!found || found.share.revokedAt) error(404, { message: 'This link does not exist or was revoked.', code: 'not_found' });
 	if (found.share.expiresAt.getTime() <= Date.now()) {
 		error(410, { message: 'This link has expired. Ask the person who sent it for a new one.', code: 'expired' });
@@ -80,10 +92,16 @@ function settingsOf(share: Opened['share']) {
  * baseline (immutable once written; the pointer may move) and the adopted tolerances (read anew each time).
  */
 export function sheetVersion(opened: Opened) {
+	const known = versions.get(opened);
+	if (known) return known;
 	const tolerances = latestTolerances(opened.tolerances);
 	const key = JSON.stringify([settingsOf(opened.share), opened.revision.id, opened.corner.baselineRevisionId, tolerances]);
-	return { key: createHash('sha256').update(key).digest('base64url').slice(0, 27), tolerances };
+	const found = { key: createHash('sha256').update(key).digest('base64url').slice(0, 27), tolerances };
+	versions.set(opened, found);
+	return found;
 }
+/** Version keys by looked-up link (a lookup is shared by a burst of readers for LOOKUP_TTL_MS, then dropped). */
+const versions = new WeakMap<Opened, { key: string; tolerances: ReturnType<typeof latestTolerances> }>();
 
 type Sheet = Awaited<ReturnType<typeof buildSheet>> & { frames: ReturnType<typeof framesOf> };
 /** Sheets already built, by version key (a few hundred at most; the oldest go first). */
