@@ -6,6 +6,8 @@
 import { readFileSync } from 'node:fs';
 import { parseCornerGeometry, SWEEP_DEFAULTS } from '../src/lib/schemas/geometry';
 import { CornerGeometryError, solveSweep, SweepOptionsError, type SweepKind, type SweepResult } from '../src/lib/server/kinematics/index';
+import { AXLE_SWEEP_DEFAULTS, parseAxleGeometry } from '../src/lib/schemas/axle';
+import { AxleSolver, barFigures } from '../src/lib/server/kinematics/axle';
 
 const HELP = `Usage: npm run -s solve -- FILE [--sweep heave|roll|steer] [--from A --to B --step S] [--rack R] [--points]
 
@@ -24,6 +26,13 @@ Sweeps (an option left out takes its default):
   --points        also give each sample the solved point positions and spring length
                   (an addition to corner-solve/1; leave it out for contract output)
 --step must be > 0 and --from <= --to; --to is included when it falls on the step grid.
+
+An axle file (axle-geometry/1: "left", "right" or "mirror", "steering", "vehicle") prints
+axle-solve/1: each sample holds "left" and "right" (corner samples) and the axle's rc,
+delta_left, delta_right, ackermann, steering_ratio and turning_circle.
+  --sweep steer   steering-wheel angle in degrees, + = the driver turns left
+                                                                default --from -360 --to 360 --step 30
+  --steering-wheel A  hold the steering wheel at A degrees during a heave or roll sweep
 
 Exit status, for batch studies and CI jobs:
   0  solved over the whole range
@@ -51,6 +60,7 @@ interface Args {
 	to?: number;
 	step?: number;
 	rack?: number;
+	'steering-wheel'?: number;
 	points: boolean;
 }
 
@@ -79,7 +89,7 @@ function parseArgs(argv: string[]): Args {
 		if (flag === '--sweep') {
 			if (value !== 'heave' && value !== 'roll' && value !== 'steer') fail(1, `--sweep: must be heave, roll or steer`);
 			sweep = value;
-		} else if (['--from', '--to', '--step', '--rack'].includes(flag)) {
+		} else if (['--from', '--to', '--step', '--rack', '--steering-wheel'].includes(flag)) {
 			const n = value.trim() === '' ? NaN : Number(value);
 			if (!Number.isFinite(n)) fail(1, `${flag}: must be a finite number, got '${value}'`);
 			nums[flag.slice(2)] = n;
@@ -89,8 +99,8 @@ function parseArgs(argv: string[]): Args {
 	return { file: files[0], sweep, points, ...nums };
 }
 
-/** Read and validate the corner file; exits 1 with the field on failure. */
-function readCorner(file: string) {
+/** Read a JSON file; exits 1 when it cannot be read or parsed. */
+function readJson(file: string): unknown {
 	let text: string;
 	try {
 		text = readFileSync(file, 'utf8');
@@ -103,6 +113,41 @@ function readCorner(file: string) {
 	} catch (e) {
 		fail(1, `FILE: ${file} is not valid JSON (${(e as Error).message})`);
 	}
+	return json;
+}
+
+/** Solve an axle file (axle-geometry/1) and print axle-solve/1. */
+function mainAxle(args: Args, json: unknown): void {
+	if (args.rack !== undefined) fail(1, '--rack: an axle file is steered by --steering-wheel (degrees)');
+	if (args['steering-wheel'] !== undefined && args.sweep === 'steer') fail(1, '--steering-wheel: only with --sweep heave or roll');
+	const parsed = parseAxleGeometry(json);
+	if (!parsed.ok) fail(1, parsed.message);
+	const d = AXLE_SWEEP_DEFAULTS[args.sweep];
+	const from = args.from ?? d.from;
+	const to = args.to ?? d.to;
+	const step = args.step ?? d.step;
+	if (!(step > 0)) fail(1, '--step: must be > 0');
+	if (!(from <= to)) fail(1, `--from: must be <= --to (got ${from} > ${to})`);
+	let solver: AxleSolver;
+	let result: ReturnType<AxleSolver['sweep']>;
+	try {
+		solver = new AxleSolver(parsed.axle);
+		result = solver.sweep({ sweep: args.sweep, from, to, step, steering_wheel: args['steering-wheel'], points: args.points });
+	} catch (e) {
+		if (e instanceof CornerGeometryError) fail(1, e.message);
+		if (e instanceof SweepOptionsError) fail(1, e.message.startsWith('steering') ? e.message : `--${e.message}`);
+		throw e;
+	}
+	const out: Record<string, unknown> = { format: 'axle-solve/1', sweep: args.sweep, kinds: [parsed.axle.left.kind, parsed.axle.right.kind], samples: result.samples };
+	const bar = barFigures(solver);
+	if (bar) out.anti_roll_bar = bar;
+	if (result.error) out.error = result.error;
+	process.stdout.write(JSON.stringify(out, tidy) + '\n');
+	if (result.error) fail(2, result.error.message);
+}
+
+/** Validate a corner file's object; exits 1 with the field on failure. */
+function readCorner(json: unknown) {
 	const parsed = parseCornerGeometry(json);
 	if (!parsed.ok) fail(1, parsed.message);
 	return parsed.corner;
@@ -118,6 +163,9 @@ function tidy(_key: string, v: unknown): unknown {
 /** Entry point. */
 function main(): void {
 	const args = parseArgs(process.argv.slice(2));
+	const json = readJson(args.file);
+	if (json && typeof json === 'object' && (json as { format?: unknown }).format === 'axle-geometry/1') return mainAxle(args, json);
+	if (args['steering-wheel'] !== undefined) fail(1, '--steering-wheel: only for an axle file (axle-geometry/1)');
 	const d = SWEEP_DEFAULTS[args.sweep];
 	const from = args.from ?? d.from;
 	const to = args.to ?? d.to;
@@ -125,7 +173,7 @@ function main(): void {
 	if (!(step > 0)) fail(1, '--step: must be > 0');
 	if (!(from <= to)) fail(1, `--from: must be <= --to (got ${from} > ${to})`);
 	if (args.rack !== undefined && args.sweep === 'steer') fail(1, '--rack: only with --sweep heave or roll');
-	const corner = readCorner(args.file);
+	const corner = readCorner(json);
 	let result: SweepResult;
 	try {
 		result = solveSweep(corner, { sweep: args.sweep, from, to, step, rack: args.rack, points: args.points });

@@ -39,6 +39,8 @@ export interface CornerInput {
 	tyre: { loaded_radius: number };
 	vehicle?: VehicleInput | null;
 	name?: string;
+	/** extra points carried by a body of this corner (an anti-roll bar's drop-link end), output with `points` */
+	attached?: { name: string; body: 'lower' | 'upper' | 'upright' | 'rocker'; at: PointTuple }[];
 }
 
 export { CHAIN_ARMS, CHAIN_REVOLUTE, CHAIN_RODS, CHAIN_SLIDER } from './plan';
@@ -455,6 +457,10 @@ function buildOutPoints(m: CornerModel, spec: KindSpec, input: CornerInput): voi
 		const code = bodyCode(m, body, name, input);
 		if (!p || code < 0) continue;
 		m.outPoints.push({ name, body: code, design: vec3(p[0], p[1], p[2]) });
+	}
+	for (const { name, body, at } of input.attached ?? []) {
+		if (body === 'rocker' && !input.rocker) continue;
+		m.outPoints.push({ name, body: bodyCode(m, body, name, input), design: vec3(at[0], at[1], at[2]) });
 	}
 }
 

@@ -11,7 +11,7 @@ const ROUTE = '/s/[token=token]';
 export const SHEET_CACHE_CONTROL = 'private, no-cache';
 
 interface Rendered {
-	body: Uint8Array;
+	body: Uint8Array<ArrayBuffer>;
 	headers: [string, string][];
 }
 /** Rendered pages by ETag (per link and version; the oldest go first). */
