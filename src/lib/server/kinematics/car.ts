@@ -1,0 +1,193 @@
+// Frame: ISO 8855 vehicle axes, x forward, y left, z up; z = 0 ground at design ride height, y = 0 centreline.
+// The whole car from a car revision's model and its pinned corner geometries: each axle built from its corners
+// (the right one measured or the left mirrored), solved at design for tracks, roll centres and motion ratios,
+// then the statics of vehicle.ts: CG, corner weights, wheel rates, ride frequencies, roll stiffness, roll
+// gradient and the load-transfer split. Units: mm, kg, N, N/mm, N·m/deg, Hz, degrees.
+
+import type { AxleModel, CarModel } from '$lib/schemas/car-model';
+import { mirrorCorner } from '$lib/schemas/axle';
+import type { CornerGeometry } from '$lib/schemas/geometry';
+import { AxleSolver, barFigures, type AxleInput } from './axle';
+import type { VehicleInput } from './corner';
+import * as V from './vehicle';
+
+export type AxleName = 'front' | 'rear';
+export type Position = 'front_left' | 'front_right' | 'rear_left' | 'rear_right';
+export type CarCorners = Partial<Record<Position, CornerGeometry>>;
+
+/** A car that cannot be analysed as asked: the field (e.g. `rear.right`, `front.spring_rate`) and why. */
+export class CarModelError extends Error {
+	constructor(
+		readonly field: string,
+		message: string
+	) {
+		super(`${field}: ${message}`);
+	}
+}
+
+/** What the corners' vehicle block needs besides the geometry: brake and drive shares. */
+export interface CarSettings {
+	frontBrakeFraction?: number | null;
+	driveLayout?: 'fwd' | 'rwd' | 'awd' | null;
+}
+
+/** The axle's corners as an axle input: the left one, and the right one measured or mirrored. */
+export function axleInput(model: CarModel, corners: CarCorners, axle: AxleName, vehicle: VehicleInput | null): AxleInput {
+	const a: AxleModel = model[axle];
+	const left = corners[`${axle}_left`];
+	if (!left) throw new CarModelError(`${axle}.left`, `the car has no ${axle}-left corner revision to analyse`);
+	let right = corners[`${axle}_right`];
+	if (a.right === 'mirror' || !right) {
+		if (a.right === 'measured') throw new CarModelError(`${axle}.right`, `'measured' but the car has no ${axle}-right corner revision (use 'mirror')`);
+		right = mirrorCorner(left);
+	}
+	return { left, right, steering: a.steering ?? null, anti_roll_bar: a.anti_roll_bar ?? null, vehicle };
+}
+
+/** The design wheel positions of both axles (contact points), from a design heave sample of each corner. */
+function solveAxle(input: AxleInput, axle: AxleName): AxleSolver {
+	try {
+		return new AxleSolver(input);
+	} catch (e) {
+		throw new CarModelError(axle, (e as Error).message);
+	}
+}
+
+export interface AxleFigures {
+	track: number;
+	x: number;
+	rc_height: number | null;
+	motion_ratio_left: number | null;
+	motion_ratio_right: number | null;
+	wheel_rate_left: number;
+	wheel_rate_right: number;
+	ride_frequency_left: number;
+	ride_frequency_right: number;
+	roll_stiffness_springs: number;
+	roll_stiffness_bar: number;
+	roll_stiffness: number;
+	bar: ReturnType<typeof barFigures>;
+}
+
+export interface CarFigures {
+	mass: number;
+	sprung_mass: number;
+	cg: [number, number, number];
+	front_share: number;
+	left_share: number;
+	wheelbase: number;
+	corner_weights: V.CornerWeights;
+	axles: Record<AxleName, AxleFigures>;
+	/** N at 1 g lateral */
+	lateral_transfer: V.LoadTransfer;
+	/** N moved from rear to front at 1 g braking */
+	braking_transfer: number;
+	warnings: string[];
+}
+
+/** The car's figures; throws CarModelError naming the field when a needed corner, spring or figure is missing. */
+export function carFigures(model: CarModel, corners: CarCorners): CarFigures {
+	const warnings: string[] = [];
+	// First pass without a vehicle block: positions, tracks, motion ratios, roll centres.
+	const solvers = { front: solveAxle(axleInput(model, corners, 'front', null), 'front'), rear: solveAxle(axleInput(model, corners, 'rear', null), 'rear') };
+	const at = (a: AxleName) => {
+		const d = solvers[a].design;
+		return { x: (d.left.contact_patch[0] + d.right.contact_patch[0]) / 2, yLeft: d.left.contact_patch[1], yRight: d.right.contact_patch[1] };
+	};
+	const wb: V.WheelBase = { front: at('front'), rear: at('rear') };
+	const wheelbase = wb.front.x - wb.rear.x;
+	if (!(wheelbase > 100)) throw new CarModelError('rear.left', `the rear wheels must stand behind the front ones (wheelbase ${wheelbase.toFixed(0)} mm): check the corners' x`);
+
+	// Mass: the items (sprung) and each corner's unsprung mass at its wheel centre.
+	const unsprungItems: V.MassItem[] = [];
+	for (const a of ['front', 'rear'] as const) {
+		const d = solvers[a].design;
+		for (const [side, s] of [['left', d.left], ['right', d.right]] as const) {
+			const [x, y, z] = s.wheel_centre;
+			unsprungItems.push({ name: `${a} ${side} unsprung`, mass: model[a].unsprung_mass, x, y, z });
+		}
+	}
+	const sprung = V.massCentre(model.mass_items)!;
+	const all = V.massCentre([...model.mass_items, ...unsprungItems])!;
+	const weights = V.cornerWeights(all.mass, all.cg, wb);
+
+	const axles = {} as Record<AxleName, AxleFigures>;
+	const statics = {} as Record<AxleName, V.AxleStatics>;
+	for (const a of ['front', 'rear'] as const) {
+		const s = solvers[a];
+		const d = s.design;
+		const spring = model[a].spring_rate;
+		const mr = (v: number | null, side: string) => {
+			if (v === null) throw new CarModelError(`${a}_${side}`, `the corner has no spring points, so its motion ratio (and wheel rate) is unknown`);
+			return v;
+		};
+		const mrl = mr(d.left.motion_ratio, 'left');
+		const mrr = mr(d.right.motion_ratio, 'right');
+		const wrl = V.wheelRate(spring, mrl);
+		const wrr = V.wheelRate(spring, mrr);
+		const tyre = model[a].tyre_rate ?? null;
+		const cw = a === 'front' ? [weights.fl, weights.fr] : [weights.rl, weights.rr];
+		const fl = V.rideFrequency(V.rideRate(wrl, tyre), cw[0] - model[a].unsprung_mass);
+		const fr = V.rideFrequency(V.rideRate(wrr, tyre), cw[1] - model[a].unsprung_mass);
+		const track = s.track;
+		const rcSample = s.sweep({ sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0]?.rc ?? null;
+		let rc = rcSample ? rcSample[1] : null;
+		if (rc === null) {
+			rc = d.left.rc_height;
+			warnings.push(`${a} axle: the two sides' front-view lines do not meet; ${rc === null ? 'roll centre taken at the ground' : "the left corner's roll-centre height is used"}`);
+		}
+		const bar = barFigures(s);
+		if (model[a].anti_roll_bar && !bar) throw new CarModelError(`${a}.anti_roll_bar.link_end`, 'the drop link cannot reach the bar lever through ±1 mm of wheel travel');
+		const springs = V.springRollStiffness(wrl, wrr, track);
+		const barK = bar?.roll_stiffness ?? 0;
+		axles[a] = {
+			track,
+			x: wb[a].x,
+			rc_height: rc,
+			motion_ratio_left: mrl,
+			motion_ratio_right: mrr,
+			wheel_rate_left: wrl,
+			wheel_rate_right: wrr,
+			ride_frequency_left: fl,
+			ride_frequency_right: fr,
+			roll_stiffness_springs: springs,
+			roll_stiffness_bar: barK,
+			roll_stiffness: springs + barK,
+			bar
+		};
+		statics[a] = {
+			track,
+			rcHeight: rc ?? 0,
+			x: wb[a].x,
+			rollStiffness: springs + barK,
+			unsprungMass: 2 * model[a].unsprung_mass,
+			unsprungHeight: (d.left.wheel_centre[2] + d.right.wheel_centre[2]) / 2
+		};
+	}
+	const lateral = V.lateralLoadTransfer(sprung.mass, sprung.cg, statics.front, statics.rear);
+	if (lateral.roll_gradient < 0 || !Number.isFinite(lateral.roll_gradient)) warnings.push('the roll stiffness cannot hold the body up (W·H exceeds the springs and bars): the roll gradient is not meaningful');
+	return {
+		mass: all.mass,
+		sprung_mass: sprung.mass,
+		cg: all.cg,
+		front_share: (weights.fl + weights.fr) / all.mass,
+		left_share: (weights.fl + weights.rl) / all.mass,
+		wheelbase,
+		corner_weights: weights,
+		axles,
+		lateral_transfer: lateral,
+		braking_transfer: V.longitudinalLoadTransfer(all.mass, all.cg[2], wheelbase),
+		warnings
+	};
+}
+
+/** The vehicle block of an axle's corners from the car's own figures (for anti-dive and anti-squat in axle sweeps). */
+export function vehicleOf(figures: Pick<CarFigures, 'wheelbase' | 'cg'>, axle: AxleName, settings: CarSettings): VehicleInput | null {
+	if (axle === 'front') {
+		const brake = settings.frontBrakeFraction;
+		return brake === null || brake === undefined ? null : { axle, wheelbase: figures.wheelbase, cg_height: figures.cg[2], front_brake_fraction: brake };
+	}
+	// an all-wheel-drive car's split is not stored: half to the rear (common practice for a first estimate, no source)
+	const drive = settings.driveLayout === 'fwd' ? 0 : settings.driveLayout === 'awd' ? 0.5 : 1;
+	return { axle, wheelbase: figures.wheelbase, cg_height: figures.cg[2], rear_drive_fraction: drive };
+}
