@@ -4,7 +4,9 @@ import { readFileSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
 import { connect, type Database } from '../src/lib/server/db/connect';
 import { appendRevision, setBaseline } from '../src/lib/server/db/queries/corners';
-import { cars, corners, memberships, revisions, teams, users, type Role } from '../src/lib/server/db/schema';
+import { appendCarRevision } from '../src/lib/server/db/queries/car-revisions';
+import type { CarModel } from '../src/lib/schemas/car-model';
+import { carRevisions, cars, corners, memberships, revisions, teams, users, type Role } from '../src/lib/server/db/schema';
 import { hashPassword } from '../src/lib/server/auth/passwords';
 
 export const DEMO_PASSWORD = 'linkwright-demo';
@@ -145,6 +147,7 @@ export async function seed(url: string) {
 		const engineer = (await db.select({ id: users.id }).from(users).where(eq(users.email, 'engineer@linkwright.test')))[0].id;
 		await seedCorners(db, engineer);
 		await seedMoreCars(db, engineer);
+		await seedCarModel(db, engineer);
 	} finally {
 		await client.end();
 	}
@@ -197,6 +200,52 @@ async function seedMoreCars(db: Database, authorId: string) {
 			await setBaseline(db, corner.id, baseline);
 		}
 	}
+}
+
+/**
+ * The single-seater's car model: invented mass items, springs, a front anti-roll bar to the lower wishbone and the
+ * steering; the car revision pins each corner's stock revision.
+ */
+export const DEMO_SINGLE_SEATER_MODEL: CarModel = {
+	format: 'car-model/1',
+	mass_items: [
+		{ name: 'Chassis and bodywork', mass: 175, x: -1250, y: 0, z: 290 },
+		{ name: 'Engine and gearbox', mass: 105, x: -1950, y: 0, z: 250 },
+		{ name: 'Driver', mass: 72, x: -1150, y: 0, z: 240 },
+		{ name: 'Fuel', mass: 28, x: -1500, y: 0, z: 200 },
+		{ name: 'Ballast', mass: 10, x: -900, y: 0, z: 60 }
+	],
+	front: {
+		unsprung_mass: 14,
+		spring_rate: 90,
+		tyre_rate: 250,
+		right: 'mirror',
+		steering: { rack_travel_per_turn: 60, rack_left_turn: '+y' },
+		anti_roll_bar: { pivot: [-130, 420, 260], arm_end: [20, 420, 260], link_end: [20, 420, 112], link_on: 'lower', torsional_stiffness: 30 }
+	},
+	rear: { unsprung_mass: 16, spring_rate: 110, tyre_rate: 260, right: 'mirror', steering: null, anti_roll_bar: null }
+};
+export const DEMO_CAR_REVISION_ID = '00000000-0000-4000-8000-0000000c0201';
+
+/** The single-seater's first car revision, written once. */
+async function seedCarModel(db: Database, authorId: string) {
+	const existing = await db.select({ id: carRevisions.id }).from(carRevisions).where(eq(carRevisions.carId, DEMO_SINGLE_SEATER_ID)).limit(1);
+	if (existing.length) return;
+	const pins: Record<string, string> = {};
+	for (const corner of MORE_CARS[0].corners) {
+		const [first] = await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.cornerId, corner.id)).orderBy(revisions.number).limit(1);
+		pins[corner.position] = first.id;
+	}
+	await appendCarRevision(db, {
+		id: DEMO_CAR_REVISION_ID,
+		carId: DEMO_SINGLE_SEATER_ID,
+		label: 'stock masses',
+		note: 'Weighed with the driver seated and half a tank; ballast under the seat.',
+		model: DEMO_SINGLE_SEATER_MODEL as unknown as Record<string, unknown>,
+		cornerRevisions: pins,
+		parentId: null,
+		authorId
+	});
 }
 
 if (process.argv[1]?.endsWith('seed.ts')) {

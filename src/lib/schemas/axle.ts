@@ -103,3 +103,27 @@ export const AXLE_SWEEP_DEFAULTS = {
 	roll: { from: -3, to: 3, step: 0.5 },
 	steer: { from: -360, to: 360, step: 30 }
 } as const;
+
+const qnum = (name: string) =>
+	z.preprocess(
+		(v) => (v === undefined || v === '' ? undefined : typeof v === 'string' ? Number(v) : v),
+		z.number({ message: `${name} must be a number` }).refine(Number.isFinite, `${name} must be a number`).optional()
+	);
+
+/** The query of an axle sweep: ?sweep=steer&from=-360&to=360&step=30 (defaults as the solve command's), steering_wheel held in heave/roll. */
+export const axleSweepQuery = z
+	.object({
+		sweep: z.enum(['heave', 'roll', 'steer'], { message: "sweep must be 'heave', 'roll' or 'steer'" }).default('heave'),
+		from: qnum('from'),
+		to: qnum('to'),
+		step: qnum('step'),
+		steering_wheel: qnum('steering_wheel'),
+		points: z.preprocess((v) => v === true || v === 'true' || v === '1', z.boolean()).optional()
+	})
+	.transform((q) => {
+		const d = AXLE_SWEEP_DEFAULTS[q.sweep];
+		return { sweep: q.sweep, from: q.from ?? d.from, to: q.to ?? d.to, step: q.step ?? d.step, steering_wheel: q.steering_wheel, points: q.points };
+	})
+	.refine((q) => q.step > 0, { path: ['step'], message: 'step must be > 0' })
+	.refine((q) => q.from <= q.to, { path: ['from'], message: 'from must be <= to' })
+	.refine((q) => q.steering_wheel === undefined || q.sweep !== 'steer', { path: ['steering_wheel'], message: 'steering_wheel is held only in a heave or roll sweep' });

@@ -4,6 +4,7 @@ import { dev } from '$app/environment';
 import { serverEnv } from '$lib/server/env';
 import { db } from '$lib/server/db';
 import { carForUser } from '$lib/server/db/queries/cars';
+import { carRevisionForUser } from '$lib/server/db/queries/car-revisions';
 import { cornerForUser, revisionForUser } from '$lib/server/db/queries/corners';
 import { shareForUser } from '$lib/server/db/queries/shares';
 import type { Role } from '$lib/server/db/schema';
@@ -75,6 +76,11 @@ export async function requireCorner(event: RequestEvent, cornerId: string, actio
 /** A revision (with its corner and car) the caller may act on; 404 / 403 as for cars. */
 export async function requireRevision(event: RequestEvent, revisionId: string, action: Action) {
 	return allowed(await revisionForUser(db, requireUser(event).id, revisionId), 'Revision', action);
+}
+
+/** A car revision (with its car) the caller may act on; 404 / 403 as for cars. */
+export async function requireCarRevision(event: RequestEvent, carRevisionId: string, action: Action) {
+	return allowed(await carRevisionForUser(db, requireUser(event).id, carRevisionId), 'Car revision', action);
 }
 
 /** A share link of one of the caller's teams they may act on; 404 / 403 as for cars. */

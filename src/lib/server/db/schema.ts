@@ -142,6 +142,28 @@ export const revisions = pgTable(
 	]
 );
 
+/**
+ * A car revision: an immutable snapshot of the car's own model (mass items, springs, bars, steering: `car-model/1`)
+ * pinning one revision of each corner it analyses. Numbered per car like corner revisions.
+ */
+export const carRevisions = pgTable(
+	'car_revisions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		carId: uuid('car_id').notNull().references(() => cars.id, { onDelete: 'cascade' }),
+		number: integer('number').notNull(),
+		label: text('label').notNull().default(''),
+		note: text('note').notNull().default(''),
+		model: jsonb('model').$type<Record<string, unknown>>().notNull(),
+		/** position → the pinned corner revision's id */
+		cornerRevisions: jsonb('corner_revisions').$type<Record<string, string>>().notNull(),
+		parentId: uuid('parent_id').references((): AnyPgColumn => carRevisions.id, { onDelete: 'restrict' }),
+		authorId: uuid('author_id').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created()
+	},
+	(t) => [uniqueIndex('car_revisions_car_number_key').on(t.carId, t.number), check('car_revisions_number_positive', sql`${t.number} > 0`)]
+);
+
 export const uploads = pgTable(
 	'uploads',
 	{

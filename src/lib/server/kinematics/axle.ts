@@ -341,3 +341,19 @@ export function barFigures(axle: AxleSolver): { lever_rate_left: number; lever_r
 		roll_stiffness: kBarRad * (mean * axle.track) ** 2 * RAD
 	};
 }
+
+/**
+ * The first wheel travel (mm) in from…to at which a side's drop link cannot reach the bar lever (the lever end's
+ * circle and the link's sphere do not meet), as { side, travel }; null when it reaches throughout.
+ */
+export function barReach(axle: AxleSolver, from = -50, to = 50, step = 5): { side: 'left' | 'right'; travel: number } | null {
+	const bar = axle.bar;
+	if (!bar) return null;
+	for (const side of ['left', 'right'] as const) {
+		const res = (side === 'left' ? axle.left : axle.right).sweep({ sweep: 'heave', from, to, step, points: true });
+		const b = barSide(bar, side);
+		const length = Math.hypot(b.link[0] - b.arm[0], b.link[1] - b.arm[1], b.link[2] - b.arm[2]);
+		for (const s of res.samples) if (Number.isNaN(leverAngle(b.pivot, b.arm, length, s.points![LINK_POINT], 0))) return { side, travel: s.travel! };
+	}
+	return null;
+}

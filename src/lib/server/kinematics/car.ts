@@ -7,7 +7,7 @@
 import type { AxleModel, CarModel } from '$lib/schemas/car-model';
 import { mirrorCorner } from '$lib/schemas/axle';
 import type { CornerGeometry } from '$lib/schemas/geometry';
-import { AxleSolver, barFigures, type AxleInput } from './axle';
+import { AxleSolver, barFigures, barReach, type AxleInput } from './axle';
 import type { VehicleInput } from './corner';
 import * as V from './vehicle';
 
@@ -137,7 +137,9 @@ export function carFigures(model: CarModel, corners: CarCorners): CarFigures {
 			warnings.push(`${a} axle: the two sides' front-view lines do not meet; ${rc === null ? 'roll centre taken at the ground' : "the left corner's roll-centre height is used"}`);
 		}
 		const bar = barFigures(s);
-		if (model[a].anti_roll_bar && !bar) throw new CarModelError(`${a}.anti_roll_bar.link_end`, 'the drop link cannot reach the bar lever through ±1 mm of wheel travel');
+		const reach = barReach(s);
+		if (reach) throw new CarModelError(`${a}.anti_roll_bar.link_end`, `the ${reach.side} drop link cannot reach the bar lever at ${reach.travel} mm of wheel travel`);
+		if (model[a].anti_roll_bar && !bar) throw new CarModelError(`${a}.anti_roll_bar.link_end`, 'the drop link cannot reach the bar lever at design');
 		const springs = V.springRollStiffness(wrl, wrr, track);
 		const barK = bar?.roll_stiffness ?? 0;
 		axles[a] = {

@@ -1,0 +1,90 @@
+// Car revisions: saving one (the one path for the page and the API) and analysing one (figures and axle sweeps).
+// A car revision pins a revision of each corner; saving refuses what cannot be analysed, naming the field, and
+// writes nothing then.
+import { error } from '@sveltejs/kit';
+import { AXLE_SWEEP_DEFAULTS } from '$lib/schemas/axle';
+import { carModelSchema, type CarModel, type CarRevisionInput } from '$lib/schemas/car-model';
+import { cornerGeometrySchema, type CornerGeometry } from '$lib/schemas/geometry';
+import { db } from '$lib/server/db';
+import { recordAudit } from '$lib/server/db/queries/audit';
+import { appendCarRevision, cornerRevisionsOfCar, latestCornerRevisions } from '$lib/server/db/queries/car-revisions';
+import type { Car } from '$lib/server/db/schema';
+import { AxleSolver, barFigures, type AxleSweepOptions } from '$lib/server/kinematics/axle';
+import { axleInput, carFigures, CarModelError, vehicleOf, type AxleName, type CarCorners, type Position } from '$lib/server/kinematics/car';
+import { CornerGeometryError, SweepOptionsError } from '$lib/server/kinematics/index';
+
+type CarRow = Pick<Car, 'id' | 'teamId' | 'frontBrakeFraction' | 'driveLayout'>;
+
+/** 400 naming the field. */
+function invalid(field: string, message: string): never {
+	error(400, { message: `${field}: ${message}`, code: 'invalid', field });
+}
+
+/** The pinned corners' geometries, checked: each id a revision of this car at that position. */
+async function pinnedCorners(carId: string, pins: Record<string, string>): Promise<CarCorners> {
+	const found = await cornerRevisionsOfCar(db, carId, Object.values(pins));
+	const out: CarCorners = {};
+	for (const [position, id] of Object.entries(pins)) {
+		const row = found.get(id);
+		if (!row) invalid(`corners.${position}`, 'not a revision of this car');
+		if (row.position !== position) invalid(`corners.${position}`, `that revision belongs to the ${row.position.replace('_', '-')} corner`);
+		const parsed = cornerGeometrySchema.safeParse(row.geometry);
+		if (!parsed.success) invalid(`corners.${position}`, `revision ${row.number} no longer parses: ${parsed.error.issues[0].message}`);
+		out[position as Position] = parsed.data;
+	}
+	return out;
+}
+
+/** Figures of a model on corners, or 400 naming the field. */
+export function figuresOrInvalid(model: CarModel, corners: CarCorners) {
+	try {
+		return carFigures(model, corners);
+	} catch (e) {
+		if (e instanceof CarModelError) invalid(e.field, e.message.slice(e.field.length + 2));
+		if (e instanceof CornerGeometryError || e instanceof SweepOptionsError) invalid('corners', e.message);
+		throw e;
+	}
+}
+
+/** Saves a new car revision (the newest corner revisions unless pinned), refusing one that cannot be analysed. */
+export async function saveCarRevision(car: CarRow, userId: string, input: CarRevisionInput, parentId: string | null) {
+	const latest = await latestCornerRevisions(db, car.id);
+	const pins: Record<string, string> = Object.fromEntries(Object.entries(latest).map(([p, r]) => [p, r.id]));
+	Object.assign(pins, input.corners ?? {});
+	const corners = await pinnedCorners(car.id, pins);
+	const figures = figuresOrInvalid(input.model, corners);
+	const row = await appendCarRevision(db, { carId: car.id, label: input.label, note: input.note, model: input.model as unknown as Record<string, unknown>, cornerRevisions: pins, parentId, authorId: userId }, async (tx, r) => {
+		await recordAudit(tx, { teamId: car.teamId, actorId: userId, action: 'car.revision_saved', subjectType: 'car', subjectId: car.id, detail: { number: r.number, carRevisionId: r.id } });
+	});
+	return { revision: row, figures };
+}
+
+/** A stored car revision's model and corners, parsed. */
+export async function loadCarRevision(row: { carId: string; model: unknown; cornerRevisions: Record<string, string> }) {
+	const model = carModelSchema.parse(row.model);
+	const corners = await pinnedCorners(row.carId, row.cornerRevisions);
+	return { model, corners };
+}
+
+/** Everything the car page and the API show of a car revision: the figures and each axle's bar figures. */
+export function analyseCar(model: CarModel, corners: CarCorners) {
+	return figuresOrInvalid(model, corners);
+}
+
+/** An axle of a car revision, solved as asked; the vehicle block comes from the car's own figures. */
+export function axleSweep(car: CarRow, model: CarModel, corners: CarCorners, axle: AxleName, options: AxleSweepOptions) {
+	const figures = figuresOrInvalid(model, corners);
+	const vehicle = vehicleOf(figures, axle, { frontBrakeFraction: car.frontBrakeFraction, driveLayout: car.driveLayout });
+	try {
+		const solver = new AxleSolver(axleInput(model, corners, axle, vehicle));
+		const result = solver.sweep(options);
+		return { format: 'axle-solve/1' as const, axle, sweep: options.sweep, track: solver.track, kinds: [solver.left.model.kind, solver.right.model.kind], anti_roll_bar: barFigures(solver), ...result };
+	} catch (e) {
+		if (e instanceof SweepOptionsError) invalid(e.message.split(':')[0], e.message.split(':').slice(1).join(':').trim());
+		if (e instanceof CarModelError) invalid(e.field, e.message.slice(e.field.length + 2));
+		throw e;
+	}
+}
+
+export { AXLE_SWEEP_DEFAULTS };
+export type { CornerGeometry };

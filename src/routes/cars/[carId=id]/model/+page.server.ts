@@ -1,0 +1,102 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { carRevisionInput, starterModel, type CarModel } from '$lib/schemas/car-model';
+import { db } from '$lib/server/db';
+import { carRevisionOfCar, carRevisionsOfCar, latestCornerRevisions } from '$lib/server/db/queries/car-revisions';
+import { axleSweep, figuresOrInvalid, loadCarRevision, saveCarRevision } from '$lib/server/cars/model';
+import { can, requireCar } from '$lib/server/permissions';
+import { isHttpError } from '@sveltejs/kit';
+import type { Actions, PageServerLoad } from './$types';
+
+type Figures = ReturnType<typeof figuresOrInvalid>;
+
+/** Figures, or the message naming what stops them. */
+function tryFigures<T>(f: () => T): { ok: true; value: T } | { ok: false; message: string } {
+	try {
+		return { ok: true, value: f() };
+	} catch (e) {
+		if (isHttpError(e)) return { ok: false, message: e.body.message };
+		throw e;
+	}
+}
+
+export const load: PageServerLoad = async (event) => {
+	const { car, role } = await requireCar(event, event.params.carId, 'view');
+	const rev = event.url.searchParams.get('rev');
+	const [list, row, latestCorners] = await Promise.all([carRevisionsOfCar(db, car.id), carRevisionOfCar(db, car.id, rev && /^[0-9a-f-]{36}$/i.test(rev) ? rev : null), latestCornerRevisions(db, car.id)]);
+	const positions = Object.keys(latestCorners);
+	if (!row) {
+		return { car, canEdit: can(role, 'edit'), revisions: list, current: null, model: starterModel(car.wheelbaseMm ?? 2600, car.cgHeightMm ?? 400), positions, figures: null, compare: null, axles: null };
+	}
+	const vsId = event.url.searchParams.get('vs') ?? row.parentId;
+	const [loaded, vsRow] = await Promise.all([loadCarRevision(row), vsId && /^[0-9a-f-]{36}$/i.test(vsId) ? carRevisionOfCar(db, car.id, vsId) : Promise.resolve(null)]);
+	const figures = tryFigures(() => figuresOrInvalid(loaded.model, loaded.corners));
+	let compare: { number: number; label: string; id: string; figures: Figures | null } | null = null;
+	if (vsRow && vsRow.id !== row.id) {
+		const other = await loadCarRevision(vsRow);
+		const f = tryFigures(() => figuresOrInvalid(other.model, other.corners));
+		compare = { number: vsRow.number, label: vsRow.label, id: vsRow.id, figures: f.ok ? f.value : null };
+	}
+	const axles = figures.ok
+		? (() => {
+				const front = loaded.model.front.steering ? axleSweep(car, loaded.model, loaded.corners, 'front', { sweep: 'steer', from: -180, to: 180, step: 10, points: true }) : null;
+				const roll = (a: 'front' | 'rear') => axleSweep(car, loaded.model, loaded.corners, a, { sweep: 'roll', from: -3, to: 3, step: 0.25 });
+				const trim = (r: ReturnType<typeof roll>) => r.samples.map((s) => ({ roll: s.roll!, rc: s.rc }));
+				return {
+					steer: front && {
+						error: front.error,
+						samples: front.samples.map((s) => ({
+							steering_wheel: s.steering_wheel!,
+							delta_left: s.delta_left,
+							delta_right: s.delta_right,
+							ackermann: s.ackermann,
+							steering_ratio: s.steering_ratio,
+							turning_circle: s.turning_circle,
+							left: { points: s.left.points!, wheel_centre: s.left.wheel_centre, contact_patch: s.left.contact_patch },
+							right: { points: s.right.points!, wheel_centre: s.right.wheel_centre, contact_patch: s.right.contact_patch }
+						})),
+						kinds: front.kinds
+					},
+					roll: { front: trim(roll('front')), rear: trim(roll('rear')) }
+				};
+			})()
+		: null;
+	return {
+		car,
+		canEdit: can(role, 'edit'),
+		revisions: list,
+		current: { id: row.id, number: row.number, label: row.label, note: row.note, createdAt: row.createdAt, corners: row.cornerRevisions },
+		model: loaded.model as CarModel,
+		positions,
+		figures: figures.ok ? figures.value : null,
+		figuresError: figures.ok ? null : figures.message,
+		compare,
+		axles
+	};
+};
+
+export const actions: Actions = {
+	save: async (event) => {
+		const { car } = await requireCar(event, event.params.carId, 'edit');
+		const form = await event.request.formData();
+		let model: unknown;
+		try {
+			model = JSON.parse(String(form.get('model') ?? ''));
+		} catch {
+			return fail(400, { error: 'model: the form did not send a car model' });
+		}
+		const parsed = carRevisionInput.safeParse({ label: form.get('label') ?? '', note: form.get('note') ?? '', model });
+		if (!parsed.success) {
+			const issue = parsed.error.issues[0];
+			return fail(400, { error: `${issue.path.join('.')}: ${issue.message}`, field: issue.path.join('.') });
+		}
+		const parent = await carRevisionOfCar(db, car.id, null);
+		let saved;
+		try {
+			saved = await saveCarRevision(car, event.locals.user!.id, parsed.data, parent?.id ?? null);
+		} catch (e) {
+			if (isHttpError(e) && e.status === 400) return fail(400, { error: e.body.message, field: (e.body as { field?: string }).field });
+			throw e;
+		}
+		redirect(303, `/cars/${car.id}/model?rev=${saved.revision.id}`);
+	}
+};
