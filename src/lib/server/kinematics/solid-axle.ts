@@ -121,7 +121,7 @@ export class SolidSweepOptionsError extends Error {}
 export const BIND_LIMIT_MM = 1;
 /** Gauss–Newton iterations per pose before giving up. */
 const MAX_ITER = 80;
-/** Converged when the step moves no point by more than this (mm, rotations scaled by REF_LEVER). */
+/** Converged when the step (or the next one, estimated from the contraction) moves no point by more than this (mm, rotations scaled by REF_LEVER). */
 const STEP_TOL_MM = 1e-11;
 /** Lever (mm) that turns a rotation step into a displacement for the convergence test. */
 const REF_LEVER = 1000;
@@ -615,12 +615,17 @@ class Solver {
 
 	/** Solve the pose for the current driver from the current pose; a failure code. */
 	solve(): number {
+		let prev = Infinity;
 		for (let it = 0; it < MAX_ITER; it++) {
 			this.linearise();
 			if (!this.step()) return FAIL_SINGULAR;
 			const size = this.apply();
 			if (!Number.isFinite(size)) return FAIL_CONVERGE;
-			if (size < STEP_TOL_MM) {
+			// converged when the step is below STEP_TOL_MM, or when the next step, estimated from the
+			// observed contraction (size / prev), would be: saves the iteration that only confirms it
+			const next = (size * size) / prev;
+			prev = size;
+			if (size < STEP_TOL_MM || (size < 1e-5 && next < STEP_TOL_MM)) {
 				this.linearise();
 				if (Math.abs(this.g[0]) > 1e-6 || Math.abs(this.g[1]) > 1e-6) return FAIL_CONVERGE;
 				return this.rms > BIND_LIMIT_MM ? FAIL_BIND : OK;
