@@ -6,7 +6,8 @@
 import { readFileSync } from 'node:fs';
 import { parseCornerGeometry, SWEEP_DEFAULTS } from '../src/lib/schemas/geometry';
 import { CornerGeometryError, solveSweep, SweepOptionsError, type SweepKind, type SweepResult } from '../src/lib/server/kinematics/index';
-import { AXLE_SWEEP_DEFAULTS, parseAxleGeometry } from '../src/lib/schemas/axle';
+import { AXLE_SWEEP_DEFAULTS, parseAxleFile } from '../src/lib/schemas/axle';
+import { SolidAxleGeometryError, SolidSweepOptionsError, solveSolidAxle } from '../src/lib/server/kinematics/solid-axle';
 import { AxleSolver, barFigures } from '../src/lib/server/kinematics/axle';
 
 const HELP = `Usage: npm run -s solve -- FILE [--sweep heave|roll|steer] [--from A --to B --step S] [--rack R] [--points]
@@ -120,7 +121,7 @@ function readJson(file: string): unknown {
 function mainAxle(args: Args, json: unknown): void {
 	if (args.rack !== undefined) fail(1, '--rack: an axle file is steered by --steering-wheel (degrees)');
 	if (args['steering-wheel'] !== undefined && args.sweep === 'steer') fail(1, '--steering-wheel: only with --sweep heave or roll');
-	const parsed = parseAxleGeometry(json);
+	const parsed = parseAxleFile(json);
 	if (!parsed.ok) fail(1, parsed.message);
 	const d = AXLE_SWEEP_DEFAULTS[args.sweep];
 	const from = args.from ?? d.from;
@@ -128,6 +129,7 @@ function mainAxle(args: Args, json: unknown): void {
 	const step = args.step ?? d.step;
 	if (!(step > 0)) fail(1, '--step: must be > 0');
 	if (!(from <= to)) fail(1, `--from: must be <= --to (got ${from} > ${to})`);
+	if (parsed.type === 'solid') return mainSolid(args, parsed.axle, from, to, step);
 	let solver: AxleSolver;
 	let result: ReturnType<AxleSolver['sweep']>;
 	try {
@@ -141,6 +143,26 @@ function mainAxle(args: Args, json: unknown): void {
 	const out: Record<string, unknown> = { format: 'axle-solve/1', sweep: args.sweep, kinds: [parsed.axle.left.kind, parsed.axle.right.kind], samples: result.samples };
 	const bar = barFigures(solver);
 	if (bar) out.anti_roll_bar = bar;
+	if (result.error) out.error = result.error;
+	process.stdout.write(JSON.stringify(out, tidy) + '\n');
+	if (result.error) fail(2, result.error.message);
+}
+
+/** Solve a solid axle file (heave or roll) and print axle-solve/1 with the solid axle's keys. */
+function mainSolid(args: Args, axle: Extract<ReturnType<typeof parseAxleFile>, { type: 'solid' }>['axle'], from: number, to: number, step: number): void {
+	if (args.sweep === 'steer') fail(1, '--sweep: a solid axle does not steer (use heave or roll)');
+	if (args['steering-wheel'] !== undefined) fail(1, '--steering-wheel: a solid axle does not steer');
+	const v = axle.vehicle;
+	if (v && v.axle !== 'rear') fail(1, "vehicle.axle: a solid axle is analysed as the rear axle ('rear')");
+	let result: ReturnType<typeof solveSolidAxle>;
+	try {
+		result = solveSolidAxle(axle.solid, v ? { wheelbase: v.wheelbase, cg_height: v.cg_height, axle: 'rear', rear_drive_fraction: v.rear_drive_fraction } : null, { sweep: args.sweep, from, to, step, points: args.points });
+	} catch (e) {
+		if (e instanceof SolidAxleGeometryError) fail(1, e.message);
+		if (e instanceof SolidSweepOptionsError) fail(1, `--${e.message}`);
+		throw e;
+	}
+	const out: Record<string, unknown> = { format: 'axle-solve/1', sweep: args.sweep, kinds: ['solid_axle'], lateral: axle.solid.lateral, samples: result.samples };
 	if (result.error) out.error = result.error;
 	process.stdout.write(JSON.stringify(out, tidy) + '\n');
 	if (result.error) fail(2, result.error.message);

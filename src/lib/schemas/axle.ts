@@ -3,6 +3,7 @@
 // the right one measured or "mirror", the steering system and the vehicle figures. Client-safe: imports only zod.
 import { z } from 'zod';
 import { cornerGeometrySchema, formatIssue, pointSchema, vehicleSchema, type CornerGeometry } from './geometry';
+import { parseSolidAxle, type SolidAxle } from './solid-axle';
 
 /** The steering system: mm of rack travel per steering-wheel revolution and which way the rack goes for a left turn. */
 export const steeringSchema = z.object({
@@ -95,6 +96,32 @@ export function parseAxleGeometry(input: unknown): { ok: true; axle: AxleGeometr
 		ok: true,
 		axle: { format: 'axle-geometry/1', name: b.name, left: left.corner, right: right.corner, mirrored, steering: b.steering ?? null, anti_roll_bar: bar, vehicle }
 	};
+}
+
+/** A solid axle file: `solid` in place of `left` and `right` (our addition to axle-geometry/1; DEVELOPERS.md "Solid axle"). */
+export interface SolidAxleGeometry {
+	format: 'axle-geometry/1';
+	name?: string;
+	solid: SolidAxle;
+	vehicle: CornerGeometry['vehicle'] | null;
+}
+
+/** Parse an axle file of either shape: two corners (`left`, `right`) or a solid axle (`solid`). */
+export function parseAxleFile(input: unknown): { ok: true; type: 'independent'; axle: AxleGeometry } | { ok: true; type: 'solid'; axle: SolidAxleGeometry } | { ok: false; message: string } {
+	if (input && typeof input === 'object' && 'solid' in input) {
+		const { solid, left, right, ...rest } = input as Record<string, unknown>;
+		if (left !== undefined || right !== undefined) return { ok: false, message: `${left !== undefined ? 'left' : 'right'}: a solid axle file has no corners (give either solid or left and right)` };
+		const base = axleBase.omit({ left: true, right: true, steering: true, anti_roll_bar: true }).strict().safeParse(rest);
+		if (!base.success) {
+			const msg = formatIssue(base.error);
+			return { ok: false, message: msg.includes('Unrecognized key') ? `${msg} (steering and anti_roll_bar are not read for a solid axle)` : msg };
+		}
+		const parsed = parseSolidAxle(solid);
+		if (!parsed.ok) return parsed;
+		return { ok: true, type: 'solid', axle: { format: 'axle-geometry/1', name: base.data.name, solid: parsed.axle, vehicle: base.data.vehicle ?? null } };
+	}
+	const r = parseAxleGeometry(input);
+	return r.ok ? { ok: true, type: 'independent', axle: r.axle } : r;
 }
 
 /** Default axle sweep ranges (contract): heave mm, roll degrees, steer by steering-wheel degrees. */
