@@ -16,6 +16,8 @@ import { revisions, studies, users } from '../../src/lib/server/db/schema';
 import { Client, DEMO_CAR_ID, DEMO_TEAM_ID, baseUrl, closeDb, freshAccount, testDb } from './helpers';
 
 const FRONT_LEFT = '00000000-0000-4000-8000-0000000000f1';
+/** The single-seater's seeded car revision (scripts/seed.ts, DEMO_CAR_REVISION_ID), of the demo team. */
+const DEMO_CAR_REVISION = '00000000-0000-4000-8000-0000000c0201';
 const PRINCIPALS = ['anonymous', 'viewer', 'engineer', 'owner', 'outsider', 'token:viewer', 'token:engineer', 'token:owner', 'share-holder'] as const;
 type Principal = (typeof PRINCIPALS)[number];
 
@@ -66,6 +68,10 @@ const TABLE: Record<string, string> = {
 	'PATCH /api/v1/cars/[carId=id]': TEAM_EDIT,
 	'GET /api/v1/cars/[carId=id]/corners': TEAM_VIEW,
 	'POST /api/v1/cars/[carId=id]/corners': TEAM_EDIT,
+	'GET /api/v1/cars/[carId=id]/revisions': TEAM_VIEW,
+	'POST /api/v1/cars/[carId=id]/revisions': TEAM_EDIT,
+	'GET /api/v1/car-revisions/[carRevisionId=id]': TEAM_VIEW,
+	'GET /api/v1/car-revisions/[carRevisionId=id]/axles/[axle=axle]': TEAM_VIEW,
 	'PUT /api/v1/corners/[cornerId=id]/baseline': TEAM_EDIT,
 	'POST /api/v1/corners/[cornerId=id]/import': TEAM_EDIT,
 	'GET /api/v1/corners/[cornerId=id]/revisions': TEAM_VIEW,
@@ -91,6 +97,8 @@ const TABLE: Record<string, string> = {
 	'POST /cars/[carId=id] ?/removeTarget': TEAM_EDIT,
 	'POST /cars/[carId=id] ?/addCorner': TEAM_EDIT,
 	'GET /cars/[carId=id]/edit': TEAM_EDIT,
+	'GET /cars/[carId=id]/model': TEAM_VIEW,
+	'POST /cars/[carId=id]/model ?/save': TEAM_EDIT,
 	'POST /cars/[carId=id]/edit': TEAM_EDIT,
 	'GET /cars/new': OWN_EDIT,
 	'POST /cars/new': OWN_EDIT,
@@ -228,6 +236,8 @@ describe('route × role', () => {
 		const values: Record<string, string | (() => Promise<string>)> = {
 			'[carId=id]': DEMO_CAR_ID,
 			'[cornerId=id]': FRONT_LEFT,
+			'[carRevisionId=id]': DEMO_CAR_REVISION,
+			'[axle=axle]': 'front',
 			'[revisionId=id]': ids.revisionId,
 			'[studyId=id]': ids.studyId,
 			'[shareId=id]': freshShareId,
