@@ -13,7 +13,6 @@ import {
 	linePath,
 	nearest,
 	niceDomain,
-	niceStep,
 	samplesToPoints,
 	slugify,
 	tickDecimals,
@@ -51,13 +50,16 @@ describe('samplesToPoints', () => {
 });
 
 describe('nice ticks', () => {
-	it('steps are 1, 2 or 5 times a power of ten, nearest the asked count (d3-array tickIncrement thresholds)', () => {
-		expect(niceStep(100, 5)).toBe(20);
-		expect(niceStep(1, 5)).toBe(0.2);
-		expect(niceStep(0.12, 5)).toBeCloseTo(0.02, 12);
-		expect(niceStep(2.77, 5)).toBe(0.5);
-		expect(niceStep(7, 5)).toBe(1);
-		expect(niceStep(0, 5)).toBe(1);
+	it('steps are 1, 2 or 5 times a power of ten, nearest the asked count (d3-array tickIncrement thresholds, through d3-scale)', () => {
+		const step = (lo: number, hi: number) => {
+			const t = ticks(lo, hi, 5);
+			return Number((t[1] - t[0]).toPrecision(12));
+		};
+		expect(step(0, 100)).toBe(20);
+		expect(step(0, 1)).toBe(0.2);
+		expect(step(0, 0.12)).toBe(0.02);
+		expect(step(0, 2.77)).toBe(0.5);
+		expect(step(0, 7)).toBe(1);
 	});
 
 	it('ticks cover the range on whole steps without floating noise', () => {
