@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { buildCsv } from '../../../src/lib/components/charts/chart-csv';
 import {
 	axisTitle,
+	cursorAfterKey,
 	extent,
 	formatNumber,
 	formatValue,
@@ -253,5 +254,26 @@ describe('measures', () => {
 		expect(measuresFor('roll').map((m) => m.key)).toContain('camber_ground');
 		expect(measuresFor('steer').map((m) => m.key)).not.toContain('camber_ground');
 		expect(SWEEP_AXES.heave).toEqual({ key: 'travel', label: 'Wheel travel, + bump', unit: 'mm' });
+	});
+});
+
+describe('cursorAfterKey (keys of the WAI-ARIA Authoring Practices slider pattern: arrows one step, Page keys a larger step, Home/End the ends)', () => {
+	const grid = Array.from({ length: 21 }, (_, i) => i * 5 - 50);
+	it('arrows step one sample, Page keys ten, clamped at the ends', () => {
+		expect(cursorAfterKey(grid, 0, 'ArrowRight')).toBe(5);
+		expect(cursorAfterKey(grid, 0, 'ArrowDown')).toBe(-5);
+		expect(cursorAfterKey(grid, 0, 'PageUp')).toBe(50);
+		expect(cursorAfterKey(grid, -40, 'PageDown')).toBe(-50);
+		expect(cursorAfterKey(grid, 50, 'ArrowUp')).toBe(50);
+	});
+	it('Home and End go to the ends, Escape hides the cursor, other keys are not taken', () => {
+		expect(cursorAfterKey(grid, 10, 'Home')).toBe(-50);
+		expect(cursorAfterKey(grid, 10, 'End')).toBe(50);
+		expect(cursorAfterKey(grid, 10, 'Escape')).toBeNull();
+		expect(cursorAfterKey(grid, 10, 'a')).toBeUndefined();
+		expect(cursorAfterKey([], 10, 'Home')).toBeUndefined();
+	});
+	it('with no cursor yet the first arrow starts from the first sample', () => {
+		expect(cursorAfterKey(grid, null, 'ArrowRight')).toBe(-45);
 	});
 });

@@ -231,3 +231,30 @@ export function slugify(title: string): string {
 			.replace(/^-+|-+$/g, '') || 'chart'
 	);
 }
+
+/** A target band's legend text ("Target: met", "… not met", or the label alone when not judged). */
+export function bandLabel(b: Band): string {
+	const what = b.label ?? 'Target';
+	return b.pass === undefined ? what : `${what}: ${b.pass ? 'met' : 'not met'}`;
+}
+
+/** A band's colour from the theme: good when met, bad when not, muted when not judged; optionally translucent. */
+export function bandColour(b: Band, alpha = 1): string {
+	const token = b.pass === undefined ? '--lw-muted' : b.pass ? '--lw-good' : '--lw-bad';
+	return `rgb(var(${token}) / ${alpha})`;
+}
+
+/**
+ * The cursor after a key on a chart's read-out (sorted `grid`, the cursor now at `at`): ←/→ (and ↑/↓) one sample,
+ * PageUp/PageDown ten, Home/End the ends, Escape hides it (null); undefined for a key the chart does not take.
+ */
+export function cursorAfterKey(grid: readonly number[], at: number | null, key: string): number | null | undefined {
+	if (grid.length === 0) return undefined;
+	const i = grid.indexOf(at ?? grid[0]);
+	const move: Record<string, number> = { ArrowRight: 1, ArrowUp: 1, ArrowLeft: -1, ArrowDown: -1, PageUp: 10, PageDown: -10 };
+	if (key in move) return grid[Math.min(grid.length - 1, Math.max(0, (i < 0 ? 0 : i) + move[key]))];
+	if (key === 'Home') return grid[0];
+	if (key === 'End') return grid[grid.length - 1];
+	if (key === 'Escape') return null;
+	return undefined;
+}
