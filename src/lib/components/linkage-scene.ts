@@ -12,7 +12,7 @@ import { disposeTree, readPalette, scratchA, toWorld, type SharedGeometry } from
 import { AxesTriad } from './linkage/gizmo';
 import { buildGround } from './linkage/ground';
 import { sizeLabels } from './linkage/labels';
-import { RevisionRig } from './linkage/rig';
+import { RevisionRig, type Look } from './linkage/rig';
 import type { CornerKind, Frame, LinkageScene, SceneData, Vec3, ViewPreset } from './linkage/types';
 
 export type { CornerKind, Frame, LinkageScene, SceneData, Vec3, ViewPreset } from './linkage/types';
@@ -174,32 +174,14 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		if (all || nextGhost !== ghostShape) {
 			dropRig('ghost');
 			if (nextGhost) {
-				ghost = new RevisionRig(
-					data.kind,
-					namesOf(data.ghost!),
-					data.loadedRadius,
-					{ link: palette.muted, joint: palette.muted, pivot: palette.muted, marker: palette.muted, opacity: 0.4, ghost: true },
-					shared,
-					sprites,
-					palette.accent
-				);
-				scene.add(ghost.group);
+				ghost = addRig(data.ghost!, { link: palette.muted, joint: palette.muted, pivot: palette.muted, marker: palette.muted, opacity: 0.4, ghost: true });
 			}
 			ghostShape = nextGhost;
 		}
 		const nextCurrent = shapeOf(data.frames, data.kind, data.loadedRadius);
 		if (all || nextCurrent !== currentShape) {
 			dropRig('current');
-			current = new RevisionRig(
-				data.kind,
-				namesOf(data.frames),
-				data.loadedRadius,
-				{ link: palette.accent, joint: palette.ink, pivot: palette.ink, marker: palette.warn, opacity: 1, ghost: false },
-				shared,
-				sprites,
-				palette.accent
-			);
-			scene.add(current.group);
+			current = addRig(data.frames, { link: palette.accent, joint: palette.ink, pivot: palette.ink, marker: palette.warn, opacity: 1, ghost: false });
 			currentShape = nextCurrent;
 		}
 		applyPose();
@@ -208,6 +190,13 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			fitted = true;
 		}
 		requestRender();
+	}
+
+	/** A new rig of the data's kind for `frames`, drawn with `look`, added to the scene. */
+	function addRig(frames: Frame[], look: Look): RevisionRig {
+		const rig = new RevisionRig(data!.kind, namesOf(frames), data!.loadedRadius, look, shared, sprites, palette.accent);
+		scene.add(rig.group);
+		return rig;
 	}
 
 	/** Remove and free one rig. */

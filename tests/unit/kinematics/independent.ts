@@ -6,7 +6,7 @@
 // plain arithmetic here. Nothing of the engine's chains, poses or measure code is used.
 
 import { referenceSweep, type ReferencePose } from '../../../src/lib/server/kinematics/reference-solver';
-import type { CornerInput, SweepKind } from '../../../src/lib/server/kinematics/index';
+import type { CornerInput, Sample, SweepKind } from '../../../src/lib/server/kinematics/index';
 import { DEG, dot, norm, sub } from './helpers';
 
 export type V = number[];
@@ -115,25 +115,11 @@ function motionCentres(c: CornerInput, travel: number, rack: number): { fvic: [n
 	return { fvic, svic };
 }
 
-/** What the contract defines at one pose, computed here. */
-export interface ByHand {
-	camber: number;
-	toe: number;
-	caster: number | null;
-	kpi: number | null;
-	scrub_radius: number | null;
-	trail: number | null;
-	fvic: [number, number] | null;
-	svic: [number, number] | null;
-	fvsa: number | null;
-	rc_height: number | null;
-	anti_dive: number | null;
-	anti_squat: number | null;
-	half_track_change: number;
-	wheelbase_change: number;
+/** What the contract defines at one pose, computed here (the sample's own keys and types; nothing of the engine runs). */
+export type ByHand = Pick<Sample, 'camber' | 'toe' | 'caster' | 'kpi' | 'scrub_radius' | 'trail' | 'fvic' | 'svic' | 'fvsa' | 'rc_height' | 'anti_dive' | 'anti_squat' | 'half_track_change' | 'wheelbase_change'> & {
 	contact_patch: V;
 	wheel_centre: V;
-}
+};
 
 /** Contact point (contract): lowest point of the wheel circle (radius R about W, normal a) against the ground normal n. */
 function contactOf(W: V, a: V, n: V, R: number): V {
