@@ -5,6 +5,7 @@
 
 import { z } from 'zod';
 import { CORNER_KINDS, kindSpec, REQUIRED_POINTS, type KindSpec } from '../kinds';
+import { cross, norm, sub } from '../vec';
 
 /** Limits of a plausible corner; kept here because this module must stay client-safe. */
 export const GEOMETRY_LIMITS = {
@@ -78,10 +79,7 @@ type Pt = [number, number, number];
 type Base = z.infer<typeof baseSchema>;
 type Ctx = z.RefinementCtx;
 
-const sub = (a: Pt, b: Pt): Pt => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
-const norm = (a: Pt): number => Math.hypot(a[0], a[1], a[2]);
-const crossLen = (a: Pt, b: Pt): number =>
-	Math.hypot(a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]);
+const crossLen = (a: Pt, b: Pt): number => norm(cross(a, b));
 
 /** Report `message` at `path` (dotted field path under the file root). */
 function issue(ctx: Ctx, path: (string | number)[], message: string): void {

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { buildCsv } from '../../../src/lib/components/charts/chart-csv';
 import {
 	axisTitle,
+	cursorAfterKey,
 	extent,
 	formatNumber,
 	formatValue,
@@ -13,7 +14,6 @@ import {
 	linePath,
 	nearest,
 	niceDomain,
-	niceStep,
 	samplesToPoints,
 	slugify,
 	tickDecimals,
@@ -51,13 +51,16 @@ describe('samplesToPoints', () => {
 });
 
 describe('nice ticks', () => {
-	it('steps are 1, 2 or 5 times a power of ten, nearest the asked count (d3-array tickIncrement thresholds)', () => {
-		expect(niceStep(100, 5)).toBe(20);
-		expect(niceStep(1, 5)).toBe(0.2);
-		expect(niceStep(0.12, 5)).toBeCloseTo(0.02, 12);
-		expect(niceStep(2.77, 5)).toBe(0.5);
-		expect(niceStep(7, 5)).toBe(1);
-		expect(niceStep(0, 5)).toBe(1);
+	it('steps are 1, 2 or 5 times a power of ten, nearest the asked count (d3-array tickIncrement thresholds, through d3-scale)', () => {
+		const step = (lo: number, hi: number) => {
+			const t = ticks(lo, hi, 5);
+			return Number((t[1] - t[0]).toPrecision(12));
+		};
+		expect(step(0, 100)).toBe(20);
+		expect(step(0, 1)).toBe(0.2);
+		expect(step(0, 0.12)).toBe(0.02);
+		expect(step(0, 2.77)).toBe(0.5);
+		expect(step(0, 7)).toBe(1);
 	});
 
 	it('ticks cover the range on whole steps without floating noise', () => {
@@ -251,5 +254,26 @@ describe('measures', () => {
 		expect(measuresFor('roll').map((m) => m.key)).toContain('camber_ground');
 		expect(measuresFor('steer').map((m) => m.key)).not.toContain('camber_ground');
 		expect(SWEEP_AXES.heave).toEqual({ key: 'travel', label: 'Wheel travel, + bump', unit: 'mm' });
+	});
+});
+
+describe('cursorAfterKey (keys of the WAI-ARIA Authoring Practices slider pattern: arrows one step, Page keys a larger step, Home/End the ends)', () => {
+	const grid = Array.from({ length: 21 }, (_, i) => i * 5 - 50);
+	it('arrows step one sample, Page keys ten, clamped at the ends', () => {
+		expect(cursorAfterKey(grid, 0, 'ArrowRight')).toBe(5);
+		expect(cursorAfterKey(grid, 0, 'ArrowDown')).toBe(-5);
+		expect(cursorAfterKey(grid, 0, 'PageUp')).toBe(50);
+		expect(cursorAfterKey(grid, -40, 'PageDown')).toBe(-50);
+		expect(cursorAfterKey(grid, 50, 'ArrowUp')).toBe(50);
+	});
+	it('Home and End go to the ends, Escape hides the cursor, other keys are not taken', () => {
+		expect(cursorAfterKey(grid, 10, 'Home')).toBe(-50);
+		expect(cursorAfterKey(grid, 10, 'End')).toBe(50);
+		expect(cursorAfterKey(grid, 10, 'Escape')).toBeNull();
+		expect(cursorAfterKey(grid, 10, 'a')).toBeUndefined();
+		expect(cursorAfterKey([], 10, 'Home')).toBeUndefined();
+	});
+	it('with no cursor yet the first arrow starts from the first sample', () => {
+		expect(cursorAfterKey(grid, null, 'ArrowRight')).toBe(-45);
 	});
 });

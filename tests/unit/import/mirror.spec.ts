@@ -25,8 +25,10 @@ function bothSides(offsets: Record<string, P>): string {
 }
 
 describe('mirror', () => {
-	it('mirror gives the stock right corner from the left points (fixture club-fwd-front-right)', () => {
+	it('mirror gives the left points with y negated, mirrored by hand here (and so the stock right fixture)', () => {
 		const p = preview(importCorner(bytes(csvOf(STOCK)), { unit: 'mm', mirror: true }, { ...ctx, cornerSide: 'right' }));
+		const byHand = Object.fromEntries(Object.entries(STOCK).map(([n, [x, y, z]]) => [n, [x, y === 0 ? 0 : -y, z]]));
+		expect(p.points).toEqual(byHand);
 		expect(p.points).toEqual(fixturePoints('club-fwd-front-right'));
 		expect(p.warnings).toEqual([]);
 	});

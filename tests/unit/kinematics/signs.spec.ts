@@ -7,6 +7,7 @@ import { Euler, Matrix4, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { solveSweep, type CornerInput, type Sample } from '../../../src/lib/server/kinematics/index';
 import { clone, DEG, fixture } from './helpers';
+import { byContract, type ByHand } from './independent';
 
 /**
  * Pose the club corner's wheel by three.js rotations: the wheel's forward direction turned
@@ -74,43 +75,58 @@ describe('ISO 8855 / SAE J670 signs', () => {
 	});
 });
 
-describe('mirror y → −y (left fixture vs right fixture)', () => {
+describe('mirror y → −y: the right fixture against the left side\'s independent values, mirrored by hand', () => {
+	// Expected values of the right corner are derived here, not by running the engine on the left: the left
+	// corner's pose from the independent general-purpose solver (mathjs), its measures by the contract's wording
+	// (independent.ts), then mirrored by hand across y = 0. ISO 8855 as the contract defines the signs (s = −1 on
+	// the right): camber (top inboard negative), toe (toe-in positive), caster, KPI (top inboard positive), scrub
+	// (axis meets the ground inboard positive), trail, half-track change (outboard positive) are the same on both
+	// sides; every y coordinate (wheel centre, contact point, fvic's y) changes sign; svic [x, z] is unchanged.
+	// A bug that hit both sides alike would fail the left side's own check in contract-definitions.spec.ts and here.
 	const left = fixture('club-fwd-front-left');
 	const right = fixture('club-fwd-front-right');
-	const same = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'wheelbase_change', 'fvsa', 'rc_height', 'anti_dive', 'motion_ratio', 'camber_ground'] as const;
+	const same = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'wheelbase_change', 'fvsa', 'rc_height', 'anti_dive'] as const;
 
-	/** Compare mirrored samples: same angles and lengths, y-coordinates negated. */
-	function expectMirror(a: Sample, b: Sample): void {
+	/** The engine's right sample b against the left side's independent values x, mirrored here. */
+	function expectMirrored(b: Sample, x: ByHand, where: string): void {
 		for (const k of same) {
-			if (a[k] === null) expect(b[k]).toBeNull();
-			else expect(b[k] as number).toBeCloseTo(a[k] as number, 9);
+			if (x[k] === null) expect(b[k], `${k} ${where}`).toBeNull();
+			else expect(Math.abs((b[k] as number) - (x[k] as number)), `${k} ${where}`).toBeLessThan(1e-6);
 		}
-		expect(b.fvic![0]).toBeCloseTo(-a.fvic![0], 6);
-		expect(b.fvic![1]).toBeCloseTo(a.fvic![1], 6);
-		expect(b.svic![0]).toBeCloseTo(a.svic![0], 6);
-		expect(b.wheel_centre[1]).toBeCloseTo(-a.wheel_centre[1], 9);
-		expect(b.contact_patch[1]).toBeCloseTo(-a.contact_patch[1], 9);
+		const mirrored: [number[], number[]][] = [
+			[b.fvic!, [-x.fvic![0], x.fvic![1]]],
+			[b.svic!, [x.svic![0], x.svic![1]]],
+			[b.wheel_centre, [x.wheel_centre[0], -x.wheel_centre[1], x.wheel_centre[2]]],
+			[b.contact_patch, [x.contact_patch[0], -x.contact_patch[1], x.contact_patch[2]]]
+		];
+		for (const [got, want] of mirrored) want.forEach((v, i) => expect(Math.abs(got[i] - v), `${where}: ${got} vs ${want}`).toBeLessThan(1e-5 + 1e-9 * Math.abs(v)));
 	}
 
-	it('heave: every sample matches at the same travel', () => {
-		const a = solveSweep(left, { sweep: 'heave', from: -50, to: 50, step: 10 }).samples;
-		const b = solveSweep(right, { sweep: 'heave', from: -50, to: 50, step: 10 }).samples;
-		expect(b).toHaveLength(a.length);
-		a.forEach((s, i) => expectMirror(s, b[i]));
+	it('the right fixture is the left one with every y negated (mirrored here)', () => {
+		for (const [k, p] of Object.entries(left.points)) expect(right.points[k]).toEqual([p[0], p[1] === 0 ? 0 : -p[1], p[2]]);
+		expect(Object.keys(right.points).sort()).toEqual(Object.keys(left.points).sort());
 	});
 
-	it('roll: right at +r matches left at −r (positive roll puts the left side down)', () => {
-		const a = solveSweep(left, { sweep: 'roll', from: -3, to: 3, step: 1 }).samples;
-		const b = solveSweep(right, { sweep: 'roll', from: -3, to: 3, step: 1 }).samples.reverse();
-		a.forEach((s, i) => {
-			expect(b[i].roll! + s.roll!).toBeCloseTo(0, 12);
-			expectMirror(s, b[i]);
-		});
+	it('heave at full rebound, design and full bump: the same travel', () => {
+		const b = solveSweep(right, { sweep: 'heave', from: -50, to: 50, step: 50 }).samples;
+		expect(b).toHaveLength(3);
+		for (const s of b) expectMirrored(s, byContract(left, 'heave', s.travel!), `travel ${s.travel}`);
 	});
 
-	it('steer: right at rack +r matches left at rack −r', () => {
-		const a = solveSweep(left, { sweep: 'steer', from: -40, to: 40, step: 10 }).samples;
-		const b = solveSweep(right, { sweep: 'steer', from: -40, to: 40, step: 10 }).samples.reverse();
-		a.forEach((s, i) => expectMirror(s, b[i]));
+	it('roll: right at +r against left at −r (positive roll puts the left side down); camber_ground = camber − r on the right', () => {
+		const b = solveSweep(right, { sweep: 'roll', from: -3, to: 3, step: 3 }).samples;
+		for (const s of b) {
+			const x = byContract(left, 'roll', -s.roll!);
+			expectMirrored(s, x, `roll ${s.roll}`);
+			expect(Math.abs(s.camber_ground! - (x.camber - s.roll!))).toBeLessThan(1e-6);
+		}
+		// the two ends differ, so a sweep read the wrong way round would fail
+		expect(Math.abs(b[0].camber - b[2].camber)).toBeGreaterThan(0.1);
+	});
+
+	it('steer: right at rack +r against left at rack −r (a rack moving +y moves toward the left corner, away from the right)', () => {
+		const b = solveSweep(right, { sweep: 'steer', from: -40, to: 40, step: 40 }).samples;
+		for (const s of b) expectMirrored(s, byContract(left, 'steer', -s.rack!), `rack ${s.rack}`);
+		expect(Math.abs(b[0].toe - b[2].toe)).toBeGreaterThan(1);
 	});
 });

@@ -1,6 +1,8 @@
 // Pure helpers for the measure charts: points from solve samples, ticks, read-out values, paths, CSV.
 // Client-safe: no DOM, no Svelte. Units as in shared/geometry-format.md (mm, degrees).
 
+import { scaleLinear } from 'd3-scale';
+import { area, line } from 'd3-shape';
 import type { MeasureKey, SweepKey } from './measures';
 
 /** One plotted point; y null = no value (a gap in the line). */
@@ -64,17 +66,7 @@ export function samplesToPoints<S extends object>(samples: readonly S[], sweepKe
 	return out.sort((a, b) => a.x - b.x);
 }
 
-/** A 1, 2 or 5 × 10ⁿ step giving the interval count nearest `count` over `span` (> 0); thresholds as in d3-array's tickIncrement. */
-export function niceStep(span: number, count = 5): number {
-	if (!(span > 0) || !Number.isFinite(span)) return 1;
-	const raw = span / Math.max(1, count);
-	const mag = 10 ** Math.floor(Math.log10(raw));
-	const f = raw / mag;
-	const nice = f >= Math.SQRT1_2 * 10 ? 10 : f >= Math.sqrt(10) ? 5 : f >= Math.SQRT2 ? 2 : 1;
-	return nice * mag;
-}
-
-/** lo…hi widened to whole nice steps; a zero-width range is opened up around its value first. */
+/** lo…hi widened to whole nice steps (d3-scale's `nice`); a zero-width range is opened up around its value first. */
 export function niceDomain(lo: number, hi: number, count = 5): [number, number] {
 	if (hi < lo) [lo, hi] = [hi, lo];
 	if (hi - lo < 1e-12) {
@@ -82,19 +74,14 @@ export function niceDomain(lo: number, hi: number, count = 5): [number, number] 
 		lo -= pad;
 		hi += pad;
 	}
-	const step = niceStep(hi - lo, count);
-	return [snapDown(lo, step), snapUp(hi, step)];
+	const [a, b] = scaleLinear().domain([lo, hi]).nice(count).domain();
+	return [a, b];
 }
 
-/** The nice tick values inside lo…hi (inclusive), about `count` intervals apart. */
+/** The nice tick values inside lo…hi (inclusive), about `count` intervals apart (d3-scale's `ticks`: 1, 2 or 5 × 10ⁿ). */
 export function ticks(lo: number, hi: number, count = 5): number[] {
 	if (!(hi > lo) || !Number.isFinite(lo) || !Number.isFinite(hi)) return Number.isFinite(lo) ? [lo] : [];
-	const step = niceStep(hi - lo, count);
-	const out: number[] = [];
-	const first = Math.ceil(lo / step - 1e-9);
-	const last = Math.floor(hi / step + 1e-9);
-	for (let i = first; i <= last; i++) out.push(clean(i * step));
-	return out;
+	return scaleLinear().domain([lo, hi]).ticks(count);
 }
 
 /** Decimals needed to print ticks `step` apart without losing a digit. */
@@ -173,29 +160,26 @@ export function hasData(series: readonly Series[]): boolean {
 	return series.some((s) => s.points.some((p) => p.y !== null && Number.isFinite(p.y)));
 }
 
-/** SVG path data of points through the scales sx, sy (px); a null y breaks the line. */
+/** SVG path data of points through the scales sx, sy (px, 2 decimals); a null y breaks the line (d3-shape's `line`). */
 export function linePath(points: readonly ChartPoint[], sx: (x: number) => number, sy: (y: number) => number): string {
-	let d = '';
-	let pen = false;
-	for (const p of points) {
-		if (p.y === null) {
-			pen = false;
-			continue;
-		}
-		d += `${pen ? 'L' : 'M'}${round2(sx(p.x))},${round2(sy(p.y))}`;
-		pen = true;
-	}
-	return d;
+	const path = line<ChartPoint>()
+		.defined((p) => p.y !== null)
+		.x((p) => sx(p.x))
+		.y((p) => sy(p.y!))
+		.digits(2);
+	return path(points) ?? '';
 }
 
-/** A closed SVG area between lo(p) and hi(p) over the spread's points (along hi, back along lo); '' when empty. */
+/** A closed SVG area between lo(p) and hi(p) over the spread's points (d3-shape's `area`: along hi, back along lo); '' when empty. */
 export function areaPath(points: readonly SpreadPoint[], sx: (x: number) => number, sy: (y: number) => number, lo: (p: SpreadPoint) => number, hi: (p: SpreadPoint) => number): string {
 	const ok = points.filter((p) => Number.isFinite(lo(p)) && Number.isFinite(hi(p)));
 	if (ok.length < 2) return '';
-	let d = '';
-	ok.forEach((p, i) => (d += `${i ? 'L' : 'M'}${round2(sx(p.x))},${round2(sy(hi(p)))}`));
-	for (let i = ok.length - 1; i >= 0; i--) d += `L${round2(sx(ok[i].x))},${round2(sy(lo(ok[i])))}`;
-	return d + 'Z';
+	const path = area<SpreadPoint>()
+		.x((p) => sx(p.x))
+		.y0((p) => sy(lo(p)))
+		.y1((p) => sy(hi(p)))
+		.digits(2);
+	return path(ok) ?? '';
 }
 
 /** Whether every value of `points` with x in the band's x0…x1 lies in y0…y1; false when none fall in range or any is null. */
@@ -248,23 +232,29 @@ export function slugify(title: string): string {
 	);
 }
 
-/** Round to 2 decimals (path coordinates in px). */
-function round2(v: number): number {
-	return Math.round(v * 100) / 100;
+/** A target band's legend text ("Target: met", "… not met", or the label alone when not judged). */
+export function bandLabel(b: Band): string {
+	const what = b.label ?? 'Target';
+	return b.pass === undefined ? what : `${what}: ${b.pass ? 'met' : 'not met'}`;
 }
 
-/** Floating noise off a tick value (0.30000000000000004 → 0.3). */
-function clean(v: number): number {
-	const r = Number(v.toPrecision(12));
-	return r === 0 ? 0 : r;
+/** A band's colour from the theme: good when met, bad when not, muted when not judged; optionally translucent. */
+export function bandColour(b: Band, alpha = 1): string {
+	const token = b.pass === undefined ? '--lw-muted' : b.pass ? '--lw-good' : '--lw-bad';
+	return `rgb(var(${token}) / ${alpha})`;
 }
 
-/** The largest multiple of step ≤ v. */
-function snapDown(v: number, step: number): number {
-	return clean(Math.floor(v / step + 1e-9) * step);
-}
-
-/** The smallest multiple of step ≥ v. */
-function snapUp(v: number, step: number): number {
-	return clean(Math.ceil(v / step - 1e-9) * step);
+/**
+ * The cursor after a key on a chart's read-out (sorted `grid`, the cursor now at `at`): ←/→ (and ↑/↓) one sample,
+ * PageUp/PageDown ten, Home/End the ends, Escape hides it (null); undefined for a key the chart does not take.
+ */
+export function cursorAfterKey(grid: readonly number[], at: number | null, key: string): number | null | undefined {
+	if (grid.length === 0) return undefined;
+	const i = grid.indexOf(at ?? grid[0]);
+	const move: Record<string, number> = { ArrowRight: 1, ArrowUp: 1, ArrowLeft: -1, ArrowDown: -1, PageUp: 10, PageDown: -10 };
+	if (key in move) return grid[Math.min(grid.length - 1, Math.max(0, (i < 0 ? 0 : i) + move[key]))];
+	if (key === 'Home') return grid[0];
+	if (key === 'End') return grid[grid.length - 1];
+	if (key === 'Escape') return null;
+	return undefined;
 }

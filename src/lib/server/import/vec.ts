@@ -1,26 +1,9 @@
 // Frame: any right-handed Cartesian frame; lengths in mm.
-// Small tuple helpers for the import (plain numbers; the import is not a hot loop).
+// The import's rigid and reflected maps, on the tuple helpers of $lib/vec (plain numbers; the import is not a hot loop).
 
-export type Vec3 = [number, number, number];
+import { add, dot, type Vec3 } from '../../vec';
 
-/** a − b (mm). */
-export const sub = (a: Vec3, b: Vec3): Vec3 => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
-/** a + b (mm). */
-export const add = (a: Vec3, b: Vec3): Vec3 => [a[0] + b[0], a[1] + b[1], a[2] + b[2]];
-/** s · a. */
-export const scale = (a: Vec3, s: number): Vec3 => [a[0] * s, a[1] * s, a[2] * s];
-/** a · b. */
-export const dot = (a: Vec3, b: Vec3): number => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-/** a × b. */
-export const cross = (a: Vec3, b: Vec3): Vec3 => [
-	a[1] * b[2] - a[2] * b[1],
-	a[2] * b[0] - a[0] * b[2],
-	a[0] * b[1] - a[1] * b[0]
-];
-/** |a| (mm). */
-export const norm = (a: Vec3): number => Math.hypot(a[0], a[1], a[2]);
-/** |a − b| (mm). */
-export const dist = (a: Vec3, b: Vec3): number => norm(sub(a, b));
+export { add, cross, dist, dot, norm, scale, sub, type Vec3 } from '../../vec';
 
 /** A rigid or reflected map p ↦ R p + t; R row-major 3×3. */
 export interface Affine {

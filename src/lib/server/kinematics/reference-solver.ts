@@ -5,6 +5,7 @@
 // the rotation and mathjs `lusolve` for each step. It shares no maths with the engine.
 
 import { expm, lusolve, matrix, type Matrix } from 'mathjs';
+import { cross, dot, sub, unit } from '../../vec';
 import type { CornerInput, PointTuple } from './corner';
 
 type V = [number, number, number];
@@ -26,13 +27,6 @@ export interface ReferenceSweep {
 	poses: (ReferencePose | null)[];
 }
 
-const sub = (a: V, b: V): V => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
-const dot = (a: V, b: V): number => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a: V, b: V): V => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
-const unit = (a: V): V => {
-	const l = Math.sqrt(dot(a, a));
-	return [a[0] / l, a[1] / l, a[2] / l];
-};
 
 /** Rotation matrix exp([r]x) of rotation vector r (rad), by mathjs `expm`. */
 function rotation(r: V): number[][] {

@@ -14,8 +14,15 @@ import type { Actions, PageServerLoad } from './$types';
 export const load: PageServerLoad = async (event) => {
 	const { corner, car, role } = await requireCorner(event, event.params.cornerId, 'view');
 	const fromId = event.url.searchParams.get('from');
-	const latest = await latestRevision(db, corner.id);
-	const shown = fromId && z.string().uuid().safeParse(fromId).success ? await revisionOfCorner(db, corner.id, fromId) : latest;
+	const asked = fromId && z.string().uuid().safeParse(fromId).success ? fromId : null;
+	// the four reads do not depend on each other: one round trip's wait instead of four
+	const [latest, askedRevision, revisions, studies] = await Promise.all([
+		latestRevision(db, corner.id),
+		asked ? revisionOfCorner(db, corner.id, asked) : null,
+		revisionsOfCorner(db, corner.id),
+		studiesOfCorner(db, corner.id)
+	]);
+	const shown = asked ? askedRevision : latest;
 	if (fromId && !shown) error(404, { message: 'Revision not found', code: 'not_found' });
 	const parsed = shown ? cornerGeometrySchema.safeParse(shown.geometry) : null;
 	// First paint: the workspace's default sweep (heave −80…80 mm by 1 mm, with point positions for the 3-D view).
@@ -26,10 +33,10 @@ export const load: PageServerLoad = async (event) => {
 		corner,
 		revision: shown,
 		latestNumber: latest?.number ?? 0,
-		revisions: await revisionsOfCorner(db, corner.id),
+		revisions,
 		vehicle: vehicleFromCar(car, corner),
 		targets: targetsSchema.catch([]).parse(car.targets),
-		studies: await studiesOfCorner(db, corner.id),
+		studies,
 		design,
 		initial,
 		canEdit: can(role, 'edit')
