@@ -27,6 +27,8 @@ export function ensurePackages() {
 	if (!stale) return;
 	say('installing npm packages');
 	run('npm', [fs.existsSync(lock) ? 'ci' : 'install', '--no-audit', '--no-fund']);
+	// npm 11 may hold back install scripts (the project's postinstall too): apply patches/ ourselves; it is idempotent.
+	run('npx', ['patch-package']);
 }
 
 /** Installs Debian's Chromium for the browser tests when it is missing. */
