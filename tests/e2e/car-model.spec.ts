@@ -1,0 +1,54 @@
+// The car as a car: an engineer moves the engine mass item 100 mm rearward and reads the new weight distribution
+// beside the old; turns the steering wheel in the axle's 3-D view and reads both road-wheel angles.
+import { expect, test } from '@playwright/test';
+import { settled, signIn } from './helpers';
+
+const SINGLE_SEATER = '00000000-0000-4000-8000-00000000ca02';
+const num = (text: string | null) => Number((text ?? '').replace(/[−–]/g, '-').replace(/[^0-9.\-]/g, ''));
+
+test('moving the engine 100 mm rearward shows the new front weight beside the old', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(`/cars/${SINGLE_SEATER}`);
+	await page.getByTestId('car-model-link').click();
+	await expect(page.getByRole('heading', { name: 'Car model' })).toBeVisible();
+	await settled(page);
+	await expect(page.getByTestId('caution')).toBeVisible();
+	const figures = page.getByTestId('car-figures');
+	const row = (label: string) => figures.locator(`tr[data-figure="${label}"]`);
+	const frontBefore = num(await row('Front weight').getByTestId('now').textContent());
+	const mass = num(await row('Total mass').getByTestId('now').textContent());
+	const wheelbase = num(await row('Wheelbase').getByTestId('now').textContent());
+	const engineMass = Number(await page.getByLabel('Engine and gearbox mass (kg)').inputValue());
+	const x = page.getByLabel('Engine and gearbox x (mm)');
+	const x0 = Number(await x.inputValue());
+	await x.fill(String(x0 - 100));
+	await page.getByLabel('Label').fill('engine 100 mm back');
+	const save = page.getByRole('button', { name: /Save as revision c\d+/ });
+	await save.click();
+	await expect(page.getByRole('heading', { name: /engine 100 mm back/ })).toBeVisible();
+	await settled(page);
+	// the old figure now stands beside the new one; statics: Δ(front share) = −m·Δx / (M·L)
+	expect(num(await row('Front weight').getByTestId('was').textContent())).toBeCloseTo(frontBefore, 2);
+	const frontAfter = num(await row('Front weight').getByTestId('now').textContent());
+	expect(frontAfter).toBeCloseTo(frontBefore - (100 * engineMass * 100) / (mass * wheelbase), 1);
+	await expect(row('Front weight').getByTestId('delta')).toHaveText(/^−0\.\d\d$/);
+	await expect(page.getByTestId('load-transfer')).toContainText('Front');
+});
+
+test('turning the steering wheel in the 3-D view turns both road wheels, the inner one more', async ({ page }) => {
+	await signIn(page, 'viewer@linkwright.test');
+	await page.goto(`/cars/${SINGLE_SEATER}/model`);
+	await settled(page);
+	const readout = page.getByTestId('steering-readout');
+	await expect(readout).toContainText('wheel +0.0°');
+	const slider = page.getByTestId('steering-slider');
+	const max = Number(await slider.getAttribute('max'));
+	await slider.fill(String(max));
+	await expect(readout).toContainText('wheel +180.0°');
+	const [left, right] = [...((await readout.textContent()) ?? '').matchAll(/road wheel ([+−][\d.]+)°/g)].map((m) => num(m[1]));
+	// a left turn: both wheels steer left, the inner (left) one further with this linkage's Ackermann
+	expect(left).toBeGreaterThan(0);
+	expect(right).toBeGreaterThan(0);
+	expect(left).toBeGreaterThan(right);
+	await expect(page.getByRole('heading', { name: 'Ackermann' })).toBeVisible();
+});
