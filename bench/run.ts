@@ -12,6 +12,8 @@ interface Bench {
 // clients of the later parts are loaded into the process (they change how the engine's code is optimised).
 const BENCHES: [string, () => Promise<Bench>][] = [
 	['kinematics', () => import('./kinematics')],
+	['axle', () => import('./axle')],
+	['solid-axle', () => import('./solid-axle')],
 	['fix-search', () => import('./fix-search')],
 	['tolerance', () => import('./tolerance')],
 	['workspace', () => import('./workspace')],

@@ -24,8 +24,9 @@ test('moving the engine 100 mm rearward shows the new front weight beside the ol
 	await x.fill(String(x0 - 100));
 	await page.getByLabel('Label').fill('engine 100 mm back');
 	const save = page.getByRole('button', { name: /Save as revision c\d+/ });
+	const next = /c(\d+)$/.exec((await save.textContent())!.trim())![1];
 	await save.click();
-	await expect(page.getByRole('heading', { name: /engine 100 mm back/ })).toBeVisible();
+	await expect(page.getByRole('heading', { name: `Revision c${next} · engine 100 mm back` })).toBeVisible();
 	await settled(page);
 	// the old figure now stands beside the new one; statics: Δ(front share) = −m·Δx / (M·L)
 	expect(num(await row('Front weight').getByTestId('was').textContent())).toBeCloseTo(frontBefore, 2);
@@ -50,5 +51,5 @@ test('turning the steering wheel in the 3-D view turns both road wheels, the inn
 	expect(left).toBeGreaterThan(0);
 	expect(right).toBeGreaterThan(0);
 	expect(left).toBeGreaterThan(right);
-	await expect(page.getByRole('heading', { name: 'Ackermann' })).toBeVisible();
+	await expect(page.getByText('Ackermann', { exact: true }).first()).toBeVisible();
 });

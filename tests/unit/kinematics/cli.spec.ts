@@ -3,7 +3,7 @@
 // defaults, grid, exit codes 0 / 1 / 2 with one line on stderr).
 
 import { execFile } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -164,5 +164,32 @@ describe('solve command', { timeout: 240_000 }, () => {
 		const stuck = await solve(tempFile('pushrod-stuck.json', c), '--from', '-100', '--to', '100');
 		expect(stuck.code).toBe(2);
 		expect(stuck.stderr.trim()).toMatch(/^pushrod: cannot be assembled at travel -?\d+ mm$/);
+	});
+});
+
+// Axle files (contract: "Axle file and axle sweeps"): axle-solve/1, the default steer grid, exit codes.
+describe('solve command with an axle file', { timeout: 240_000 }, () => {
+	it('prints axle-solve/1 on the default steer grid with both sides and the axle keys', async () => {
+		const r = await solve('fixtures/club-front-axle.json', '--sweep', 'steer');
+		expect(r.code).toBe(0);
+		const out = JSON.parse(r.stdout);
+		expect(out.format).toBe('axle-solve/1');
+		expect(out.samples.map((s: { steering_wheel: number }) => s.steering_wheel)).toEqual(Array.from({ length: 25 }, (_, i) => -360 + 30 * i));
+		for (const s of out.samples) {
+			for (const k of ['left', 'right', 'rc', 'delta_left', 'delta_right', 'ackermann', 'steering_ratio', 'turning_circle']) expect(s).toHaveProperty(k);
+			for (const k of KEYS) expect(s.left).toHaveProperty(k);
+		}
+		// rack_left_turn '-y': at +90° of steering wheel the rack has moved 12.5 mm toward −y
+		expect(out.samples.find((s: { steering_wheel: number }) => s.steering_wheel === 90).left.rack).toBeCloseTo(-12.5, 9);
+	});
+
+	it('refuses bad input naming the field (exit 1), and a steer sweep of a solid axle', async () => {
+		const axle = JSON.parse(readFileSync(join(ROOT, 'fixtures/club-front-axle.json'), 'utf8'));
+		axle.steering.rack_left_turn = 'left';
+		const [bad, solid] = await Promise.all([solve(tempFile('bad-axle.json', axle)), solve('fixtures/invented-solid-rear-axle.json', '--sweep', 'steer')]);
+		expect(bad.code).toBe(1);
+		expect(bad.stderr).toMatch(/^steering\.rack_left_turn: /);
+		expect(solid.code).toBe(1);
+		expect(solid.stderr).toMatch(/^--sweep: a solid axle does not steer/);
 	});
 });

@@ -256,17 +256,16 @@ export class AxleSolver {
 		const dl = steer ? this.deltaLeft(l) : null;
 		const dr = steer ? this.deltaRight(r) : null;
 		const L = this.wheelbase;
-		const out: AxleSample = {
-			...head,
-			left: l,
-			right: r,
-			rc: steer ? null : rollCentre(l.contact_patch, l.fvic, r.contact_patch, r.fvic),
-			delta_left: dl,
-			delta_right: dr,
-			ackermann: steer && L ? ackermannPercent(dl!, dr!, L, this.track) : null,
-			steering_ratio: ratio,
-			turning_circle: steer && L ? turningCircle(dl!, dr!, L) : null
-		};
+		// built property by property in one order (an object spread here cost several µs a sample)
+		const out = head as AxleSample;
+		out.left = l;
+		out.right = r;
+		out.rc = steer ? null : rollCentre(l.contact_patch, l.fvic, r.contact_patch, r.fvic);
+		out.delta_left = dl;
+		out.delta_right = dr;
+		out.ackermann = steer && L ? ackermannPercent(dl!, dr!, L, this.track) : null;
+		out.steering_ratio = ratio;
+		out.turning_circle = steer && L ? turningCircle(dl!, dr!, L) : null;
 		if (this.bar) out.bar_twist = this.twist(l, r);
 		if (!keepPoints) {
 			out.left = strip(l);
