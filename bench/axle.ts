@@ -37,10 +37,12 @@ export async function run(): Promise<void> {
 	console.log(`  one corner, roll sweep 61 positions, median     ${one.toFixed(1)} µs`);
 	console.log(`  axle (both sides + roll centre), same sweep     ${both.toFixed(1)} µs  = ${ratio.toFixed(2)}× one corner (target ≤ 2.5×) → ${ratio <= 2.5 ? 'within target' : 'OVER target'}`);
 	console.log(`  axle steer sweep ±360° by 10° (73 + 2×73 for the ratio)  ${medianUs(() => axle.sweep({ sweep: 'steer', from: -360, to: 360, step: 10 }), 50, 200).toFixed(1)} µs`);
-	const corners = {
-		front_left: (parseCornerGeometry({ format: 'corner-geometry/1', ...json('fixtures/single-seater-front-left-pushrod.json') }) as { corner: never }).corner,
-		rear_left: (parseCornerGeometry({ format: 'corner-geometry/1', ...json('fixtures/single-seater-rear-left-five-link.json') }) as { corner: never }).corner
+	const corner1 = (f: string) => {
+		const r = parseCornerGeometry({ format: 'corner-geometry/1', ...json(f) });
+		if (!r.ok) throw new Error(r.message);
+		return r.corner;
 	};
+	const corners = { front_left: corner1('fixtures/single-seater-front-left-pushrod.json'), rear_left: corner1('fixtures/single-seater-rear-left-five-link.json') };
 	const model = carModelSchema.parse(DEMO_SINGLE_SEATER_MODEL);
 	console.log(`  car figures of the demo single-seater (both axles, bar reach ±50 mm)  ${medianUs(() => carFigures(model, corners), 20, 100).toFixed(0)} µs`);
 }

@@ -156,3 +156,24 @@ describe('axle sweeps', () => {
 		expect((await viewer.fetch(`/api/v1/car-revisions/${id}/axles/middle?sweep=roll`)).status).toBe(404);
 	});
 });
+
+describe('a car with a solid rear axle', () => {
+	test('saves without rear corners; its rear roll sweep answers with the rod height at the centreline; steer is refused naming sweep', async () => {
+		const car = (await (await engineer.json('/api/v1/cars', 'POST', { name: 'Live axle API car', driveLayout: 'rwd' })).json()).id;
+		const corner = await (await engineer.json(`/api/v1/cars/${car}/corners`, 'POST', { position: 'front_left', kind: 'double_wishbone' })).json();
+		expect((await engineer.json(`/api/v1/corners/${corner.id}/revisions`, 'POST', { label: 'stock', note: '', geometry: front })).status).toBe(201);
+		const solid = JSON.parse(readFileSync('fixtures/invented-solid-rear-axle.json', 'utf8')).solid;
+		for (const p of Object.values(solid.points) as number[][]) p[0] -= 2700;
+		const m = model();
+		(m.rear as Record<string, unknown>).solid = solid;
+		const res = await engineer.json(`/api/v1/cars/${car}/revisions`, 'POST', { label: 'live axle', model: m });
+		expect(res.status).toBe(201);
+		const { id } = await res.json();
+		const roll = await (await viewer.fetch(`/api/v1/car-revisions/${id}/axles/rear?sweep=roll&from=0&to=0&step=1`)).json();
+		const [a, b] = [solid.points['panhard.chassis'], solid.points['panhard.axle']];
+		expect(roll.samples[0].rc_height).toBeCloseTo(a[2] + ((0 - a[1]) * (b[2] - a[2])) / (b[1] - a[1]), 6); // common practice
+		const steer = await viewer.fetch(`/api/v1/car-revisions/${id}/axles/rear?sweep=steer`);
+		expect(steer.status).toBe(400);
+		expect((await steer.json()).error.field).toBe('sweep');
+	});
+});

@@ -4,6 +4,7 @@
 // revisions, which a car revision pins. Client-safe: imports only zod.
 import { z } from 'zod';
 import { antiRollBarSchema, steeringSchema } from './axle';
+import { solidAxleSchema } from './solid-axle';
 
 const mm = (what: string) => z.number({ error: `must be a number (mm, ${what})` }).refine((v) => Math.abs(v) <= 100_000, 'is implausibly large (mm expected)');
 
@@ -24,7 +25,9 @@ export const axleModelSchema = z.object({
 	/** the right corner: its own revision, or the left one mirrored */
 	right: z.enum(['measured', 'mirror'], { error: "must be 'measured' or 'mirror'" }).default('mirror'),
 	steering: steeringSchema.nullable().optional(),
-	anti_roll_bar: antiRollBarSchema.nullable().optional()
+	anti_roll_bar: antiRollBarSchema.nullable().optional(),
+	/** a solid axle's points (rear only), in place of the axle's corners */
+	solid: solidAxleSchema.nullable().optional()
 });
 export type AxleModel = z.infer<typeof axleModelSchema>;
 
@@ -35,7 +38,7 @@ export const carModelSchema = z.object({
 		.min(1, 'at least one mass item (the sprung body)')
 		.max(50, 'at most 50 mass items')
 		.refine((items) => new Set(items.map((i) => i.name.toLowerCase())).size === items.length, 'two mass items have the same name'),
-	front: axleModelSchema,
+	front: axleModelSchema.refine((a) => !a.solid, { path: ['solid'], message: 'a solid axle is taken on the rear axle only' }),
 	rear: axleModelSchema
 });
 export type CarModel = z.infer<typeof carModelSchema>;

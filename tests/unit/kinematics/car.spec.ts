@@ -159,3 +159,35 @@ describe('the car', () => {
 		expect(gain.error!.issues[0].path.join('.')).toBe('front.steering.rack_travel_per_turn');
 	});
 });
+
+describe('a car with a solid rear axle', () => {
+	/** The invented live axle (fixtures) moved to the single-seater's rear axle line, x − 2700. */
+	function solidRear() {
+		const file = fixture('invented-solid-rear-axle' as never) as unknown as { solid: { points: Record<string, number[]> } };
+		const solid = JSON.parse(JSON.stringify(file.solid));
+		for (const p of Object.values(solid.points) as number[][]) p[0] -= 2700;
+		return solid;
+	}
+
+	it('needs no rear corners; the roll centre is the Panhard rod at the centreline; springs roll over their own spacing', () => {
+		const m = model();
+		m.rear.solid = solidRear();
+		const f = carFigures(m, { front_left: corner('single-seater-front-left-pushrod') });
+		const p = m.rear.solid!.points;
+		// the rod's front-view line through its two ends, at y = 0 (common practice for a Panhard rod, no source)
+		const [a, b] = [p['panhard.chassis'], p['panhard.axle']];
+		const rc = a[2] + ((0 - a[1]) * (b[2] - a[2])) / (b[1] - a[1]);
+		expect(f.axles.rear.rc_height!).toBeCloseTo(rc, 6);
+		expect(f.axles.rear.track).toBeCloseTo(p['wheel_left.centre'][1] - p['wheel_right.centre'][1], 3);
+		// springs at ±s/2 on the axle: roll moment per radian k·MR²·s²/2 (same construction as K = k t² / 2)
+		const s = p['spring_left.axle'][1] - p['spring_right.axle'][1];
+		const k = f.axles.rear.wheel_rate_left;
+		expect(f.axles.rear.roll_stiffness_springs).toBeCloseTo(((k * s * s) / 2 / 1000) * RAD, 6);
+		expect(f.wheelbase).toBeCloseTo(2700, 0);
+	});
+
+	it('refuses a solid axle on the front, naming the field', () => {
+		const bad = carModelSchema.safeParse({ ...model(), front: { ...model().front, solid: solidRear() } });
+		expect(bad.error!.issues[0].path.join('.')).toBe('front.solid');
+	});
+});

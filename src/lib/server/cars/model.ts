@@ -12,6 +12,7 @@ import type { Car } from '$lib/server/db/schema';
 import { AxleSolver, barFigures, type AxleSweepOptions } from '$lib/server/kinematics/axle';
 import { axleInput, carFigures, CarModelError, vehicleOf, type AxleName, type CarCorners, type Position } from '$lib/server/kinematics/car';
 import { CornerGeometryError, SweepOptionsError } from '$lib/server/kinematics/index';
+import { solveSolidAxle, SolidSweepOptionsError } from '$lib/server/kinematics/solid-axle';
 
 type CarRow = Pick<Car, 'id' | 'teamId' | 'frontBrakeFraction' | 'driveLayout'>;
 
@@ -75,6 +76,20 @@ export function analyseCar(model: CarModel, corners: CarCorners) {
 export function axleSweep(car: CarRow, model: CarModel, corners: CarCorners, axle: AxleName, options: AxleSweepOptions) {
 	const figures = figuresOrInvalid(model, corners);
 	const vehicle = vehicleOf(figures, axle, { frontBrakeFraction: car.frontBrakeFraction, driveLayout: car.driveLayout });
+	const solid = axle === 'rear' ? model.rear.solid : null;
+	if (solid) {
+		if (options.sweep === 'steer') invalid('sweep', 'a solid axle does not steer (use heave or roll)');
+		try {
+			const v = vehicle && { wheelbase: vehicle.wheelbase, cg_height: vehicle.cg_height, axle: 'rear' as const, rear_drive_fraction: vehicle.rear_drive_fraction };
+			const result = solveSolidAxle(solid, v, { sweep: options.sweep as 'heave' | 'roll', from: options.from, to: options.to, step: options.step, points: options.points });
+			// the roll centre as [y, z] like the independent axle's: on the centreline, at the lateral locator's height
+			const samples = result.samples.map((x) => ({ ...x, rc: x.rc_height === null ? null : ([0, x.rc_height] as [number, number]) }));
+			return { format: 'axle-solve/1' as const, axle, sweep: options.sweep, track: figures.axles.rear.track, kinds: ['solid_axle', 'solid_axle'], anti_roll_bar: null, samples, error: result.error };
+		} catch (e) {
+			if (e instanceof SolidSweepOptionsError) invalid(e.message.split(':')[0], e.message.split(':').slice(1).join(':').trim());
+			throw e;
+		}
+	}
 	try {
 		const solver = new AxleSolver(axleInput(model, corners, axle, vehicle));
 		const result = solver.sweep(options);

@@ -10,6 +10,52 @@ import type { CornerGeometry } from '$lib/schemas/geometry';
 import { AxleSolver, barFigures, barReach, type AxleInput } from './axle';
 import type { VehicleInput } from './corner';
 import * as V from './vehicle';
+import { solveSolidAxle } from './solid-axle';
+
+/** One wheel at design as the statics need it. */
+interface WheelAtDesign {
+	wheel_centre: readonly number[];
+	contact_patch: readonly number[];
+	motion_ratio: number | null;
+	rc_height?: number | null;
+}
+
+/** An axle at design: both wheels, its track, roll-centre height and anti-roll bar figures. */
+interface AxleAtDesign {
+	left: WheelAtDesign;
+	right: WheelAtDesign;
+	track: number;
+	rc: number | null;
+	rcWarning: string | null;
+	bar: ReturnType<typeof barFigures>;
+}
+
+/** A solid rear axle at design (rc_height of its lateral locator: common practice). */
+function solidAtDesign(model: CarModel): AxleAtDesign {
+	const solid = model.rear.solid!;
+	if (model.rear.anti_roll_bar) throw new CarModelError('rear.anti_roll_bar', 'an anti-roll bar on a solid axle is not modelled yet');
+	const res = solveSolidAxle(solid, null, { sweep: 'heave', from: 0, to: 0, step: 1 });
+	const s = res.samples[0];
+	if (!s) throw new CarModelError('rear.solid', res.error?.message ?? 'the solid axle cannot be assembled at design');
+	return { left: s.left, right: s.right, track: Math.abs(s.left.contact_patch[1] - s.right.contact_patch[1]), rc: s.rc_height, rcWarning: s.rc_height === null ? 'rear axle: the lateral locator gives no roll centre; taken at the ground' : null, bar: null };
+}
+
+/** An independent axle at design from its solver. */
+function independentAtDesign(s: AxleSolver, a: AxleName): AxleAtDesign {
+	const d = s.design;
+	const rcSample = s.sweep({ sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0]?.rc ?? null;
+	let rc = rcSample ? rcSample[1] : null;
+	let rcWarning: string | null = null;
+	if (rc === null) {
+		rc = d.left.rc_height;
+		rcWarning = `${a} axle: the two sides' front-view lines do not meet; ${rc === null ? 'roll centre taken at the ground' : "the left corner's roll-centre height is used"}`;
+	}
+	const reach = barReach(s);
+	if (reach) throw new CarModelError(`${a}.anti_roll_bar.link_end`, `the ${reach.side} drop link cannot reach the bar lever at ${reach.travel} mm of wheel travel`);
+	const bar = barFigures(s);
+	if (s.bar && !bar) throw new CarModelError(`${a}.anti_roll_bar.link_end`, 'the drop link cannot reach the bar lever at design');
+	return { left: d.left, right: d.right, track: s.track, rc, rcWarning, bar };
+}
 
 export type AxleName = 'front' | 'rear';
 export type Position = 'front_left' | 'front_right' | 'rear_left' | 'rear_right';
@@ -89,9 +135,12 @@ export interface CarFigures {
 export function carFigures(model: CarModel, corners: CarCorners): CarFigures {
 	const warnings: string[] = [];
 	// First pass without a vehicle block: positions, tracks, motion ratios, roll centres.
-	const solvers = { front: solveAxle(axleInput(model, corners, 'front', null), 'front'), rear: solveAxle(axleInput(model, corners, 'rear', null), 'rear') };
+	const design: Record<AxleName, AxleAtDesign> = {
+		front: independentAtDesign(solveAxle(axleInput(model, corners, 'front', null), 'front'), 'front'),
+		rear: model.rear.solid ? solidAtDesign(model) : independentAtDesign(solveAxle(axleInput(model, corners, 'rear', null), 'rear'), 'rear')
+	};
 	const at = (a: AxleName) => {
-		const d = solvers[a].design;
+		const d = design[a];
 		return { x: (d.left.contact_patch[0] + d.right.contact_patch[0]) / 2, yLeft: d.left.contact_patch[1], yRight: d.right.contact_patch[1] };
 	};
 	const wb: V.WheelBase = { front: at('front'), rear: at('rear') };
@@ -101,7 +150,7 @@ export function carFigures(model: CarModel, corners: CarCorners): CarFigures {
 	// Mass: the items (sprung) and each corner's unsprung mass at its wheel centre.
 	const unsprungItems: V.MassItem[] = [];
 	for (const a of ['front', 'rear'] as const) {
-		const d = solvers[a].design;
+		const d = design[a];
 		for (const [side, s] of [['left', d.left], ['right', d.right]] as const) {
 			const [x, y, z] = s.wheel_centre;
 			unsprungItems.push({ name: `${a} ${side} unsprung`, mass: model[a].unsprung_mass, x, y, z });
@@ -114,11 +163,10 @@ export function carFigures(model: CarModel, corners: CarCorners): CarFigures {
 	const axles = {} as Record<AxleName, AxleFigures>;
 	const statics = {} as Record<AxleName, V.AxleStatics>;
 	for (const a of ['front', 'rear'] as const) {
-		const s = solvers[a];
-		const d = s.design;
+		const d = design[a];
 		const spring = model[a].spring_rate;
 		const mr = (v: number | null, side: string) => {
-			if (v === null) throw new CarModelError(`${a}_${side}`, `the corner has no spring points, so its motion ratio (and wheel rate) is unknown`);
+			if (v === null) throw new CarModelError(a === 'rear' && model.rear.solid ? `rear.solid.points.spring_${side}.axle` : `${a}_${side}`, `no spring points, so the motion ratio (and wheel rate) is unknown`);
 			return v;
 		};
 		const mrl = mr(d.left.motion_ratio, 'left');
@@ -129,18 +177,16 @@ export function carFigures(model: CarModel, corners: CarCorners): CarFigures {
 		const cw = a === 'front' ? [weights.fl, weights.fr] : [weights.rl, weights.rr];
 		const fl = V.rideFrequency(V.rideRate(wrl, tyre), cw[0] - model[a].unsprung_mass);
 		const fr = V.rideFrequency(V.rideRate(wrr, tyre), cw[1] - model[a].unsprung_mass);
-		const track = s.track;
-		const rcSample = s.sweep({ sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0]?.rc ?? null;
-		let rc = rcSample ? rcSample[1] : null;
-		if (rc === null) {
-			rc = d.left.rc_height;
-			warnings.push(`${a} axle: the two sides' front-view lines do not meet; ${rc === null ? 'roll centre taken at the ground' : "the left corner's roll-centre height is used"}`);
-		}
-		const bar = barFigures(s);
-		const reach = barReach(s);
-		if (reach) throw new CarModelError(`${a}.anti_roll_bar.link_end`, `the ${reach.side} drop link cannot reach the bar lever at ${reach.travel} mm of wheel travel`);
-		if (model[a].anti_roll_bar && !bar) throw new CarModelError(`${a}.anti_roll_bar.link_end`, 'the drop link cannot reach the bar lever at design');
-		const springs = V.springRollStiffness(wrl, wrr, track);
+		const track = d.track;
+		const rc = d.rc;
+		if (d.rcWarning) warnings.push(d.rcWarning);
+		const bar = d.bar;
+		// a solid axle's springs work in roll only over their own spacing: roll rate k·MR²·(spacing / track)² (common practice, no source)
+		const solid = a === 'rear' ? model.rear.solid : null;
+		const sl = solid?.points['spring_left.axle'];
+		const sr = solid?.points['spring_right.axle'];
+		const rollShare = sl && sr ? (Math.abs(sl[1] - sr[1]) / track) ** 2 : 1;
+		const springs = V.springRollStiffness(wrl * rollShare, wrr * rollShare, track);
 		const barK = bar?.roll_stiffness ?? 0;
 		axles[a] = {
 			track,

@@ -5,6 +5,7 @@ import { carRevisionOfCar, carRevisionsOfCar, latestCornerRevisions } from '$lib
 import { axleSweep, figuresOrInvalid, loadCarRevision, saveCarRevision } from '$lib/server/cars/model';
 import { can, requireCar } from '$lib/server/permissions';
 import { isHttpError } from '@sveltejs/kit';
+import type { AxleSample } from '$lib/server/kinematics/axle';
 import type { Actions, PageServerLoad } from './$types';
 
 type Figures = ReturnType<typeof figuresOrInvalid>;
@@ -44,7 +45,7 @@ export const load: PageServerLoad = async (event) => {
 				return {
 					steer: front && {
 						error: front.error,
-						samples: front.samples.map((s) => ({
+						samples: (front.samples as AxleSample[]).map((s) => ({
 							steering_wheel: s.steering_wheel!,
 							delta_left: s.delta_left,
 							delta_right: s.delta_right,
