@@ -17,12 +17,13 @@ const BENCHES: [string, () => Promise<Bench>][] = [
 	['fix-search', () => import('./fix-search')],
 	['tolerance', () => import('./tolerance')],
 	['workspace', () => import('./workspace')],
+	['car-page', () => import('./car-page')],
 	['sharing', () => import('./sharing')],
 	['share-load', () => import('./share-load')]
 ];
 
 /** Parts that drive the built app in Chromium against the test database. */
-const IN_BROWSER = ['workspace', 'sharing'];
+const IN_BROWSER = ['workspace', 'car-page', 'sharing'];
 
 // `npm run bench -- workspace sharing` runs the named parts only.
 const wanted = process.argv.slice(2);
