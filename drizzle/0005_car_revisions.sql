@@ -16,18 +16,7 @@ ALTER TABLE "car_revisions" ADD CONSTRAINT "car_revisions_car_id_cars_id_fk" FOR
 ALTER TABLE "car_revisions" ADD CONSTRAINT "car_revisions_parent_id_car_revisions_id_fk" FOREIGN KEY ("parent_id") REFERENCES "public"."car_revisions"("id") ON DELETE restrict ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "car_revisions" ADD CONSTRAINT "car_revisions_author_id_users_id_fk" FOREIGN KEY ("author_id") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
 CREATE UNIQUE INDEX "car_revisions_car_number_key" ON "car_revisions" USING btree ("car_id","number");--> statement-breakpoint
--- Car revisions are immutable like corner revisions: the only update allowed is the author set to null by the
--- foreign key when an account is deleted.
-CREATE OR REPLACE FUNCTION linkwright_car_revisions_immutable() RETURNS trigger AS $$
-BEGIN
-	IF NEW.author_id IS NULL AND OLD.author_id IS NOT NULL
-		AND (to_jsonb(NEW) - 'author_id') = (to_jsonb(OLD) - 'author_id') THEN
-		RETURN NEW;
-	END IF;
-	RAISE EXCEPTION 'car revision % is immutable: save a new revision instead', OLD.id
-		USING ERRCODE = 'restrict_violation';
-END;
-$$ LANGUAGE plpgsql;
---> statement-breakpoint
+-- Car revisions are immutable like corner revisions, by the same trigger function (migration 0001): the only update
+-- allowed is the author set to null by the foreign key when an account is deleted.
 CREATE TRIGGER car_revisions_immutable BEFORE UPDATE ON car_revisions
-	FOR EACH ROW EXECUTE FUNCTION linkwright_car_revisions_immutable();
+	FOR EACH ROW EXECUTE FUNCTION linkwright_revisions_immutable();

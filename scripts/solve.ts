@@ -137,7 +137,7 @@ function mainAxle(args: Args, json: unknown): void {
 		result = solver.sweep({ sweep: args.sweep, from, to, step, steering_wheel: args['steering-wheel'], points: args.points });
 	} catch (e) {
 		if (e instanceof CornerGeometryError) fail(1, e.message);
-		if (e instanceof SweepOptionsError) fail(1, e.message.startsWith('steering') ? e.message : `--${e.message}`);
+		if (e instanceof SweepOptionsError) fail(1, /^(steering|anti_roll_bar)/.test(e.message) ? e.message : `--${e.message}`);
 		throw e;
 	}
 	const out: Record<string, unknown> = { format: 'axle-solve/1', sweep: args.sweep, kinds: [parsed.axle.left.kind, parsed.axle.right.kind], samples: result.samples };

@@ -3,7 +3,6 @@
 // (y, z, x), as in linkage-scene.ts. Renders only on change.
 import {
 	BufferGeometry,
-	Color,
 	CylinderGeometry,
 	Float32BufferAttribute,
 	Group,
@@ -22,6 +21,7 @@ import {
 	DoubleSide
 } from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
+import { readPalette, toWorld } from './linkage/basics';
 
 export type Vec3 = [number, number, number];
 
@@ -46,20 +46,15 @@ export interface AxleScene {
 	dispose(): void;
 }
 
-const world = (p: Vec3, out = new Vector3()) => out.set(p[1], p[2], p[0]);
-
-/** The page's theme colour `--lw-name` ("r g b") as a three colour. */
-function token(name: string): Color {
-	const [r, g, b] = getComputedStyle(document.documentElement).getPropertyValue(`--lw-${name}`).trim().split(/[\s,]+/).map(Number);
-	return [r, g, b].every(Number.isFinite) ? new Color().setRGB(r / 255, g / 255, b / 255, SRGBColorSpace) : new Color(0x808080);
-}
+const world = (p: Vec3, out = new Vector3()) => toWorld(p, out);
 
 export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 	const renderer = new WebGLRenderer({ canvas, antialias: true, preserveDrawingBuffer: true });
 	renderer.setPixelRatio(Math.min(window.devicePixelRatio || 1, 2));
 	renderer.outputColorSpace = SRGBColorSpace;
+	const palette = readPalette();
 	const scene = new Scene();
-	scene.background = token('panel');
+	scene.background = palette.panel;
 	scene.add(new AmbientLight(0xffffff, 1.6));
 	const sun = new DirectionalLight(0xffffff, 1.4);
 	sun.position.set(500, 1500, 1200);
@@ -72,9 +67,9 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 	let data: AxleSceneData | null = null;
 	let group = new Group();
 	scene.add(group);
-	const linkMaterial = new LineBasicMaterial({ color: token('accent') });
-	const bodyMaterial = new LineBasicMaterial({ color: token('muted') });
-	const tyreMaterial = new MeshStandardMaterial({ color: token('ink'), transparent: true, opacity: 0.3, roughness: 0.9, side: DoubleSide, depthWrite: false });
+	const linkMaterial = new LineBasicMaterial({ color: palette.accent });
+	const bodyMaterial = new LineBasicMaterial({ color: palette.muted });
+	const tyreMaterial = new MeshStandardMaterial({ color: palette.ink, transparent: true, opacity: 0.3, roughness: 0.9, side: DoubleSide, depthWrite: false });
 	const disc = new CylinderGeometry(1, 1, 1, 40, 1, true);
 	let width = 1;
 	let height = 1;

@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import { cornerGeometrySchema, formatIssue, pointSchema, vehicleSchema, type CornerGeometry } from './geometry';
 import { parseSolidAxle, type SolidAxle } from './solid-axle';
+import { num } from './corner';
 
 /** The steering system: mm of rack travel per steering-wheel revolution and which way the rack goes for a left turn. */
 export const steeringSchema = z.object({
@@ -131,20 +132,14 @@ export const AXLE_SWEEP_DEFAULTS = {
 	steer: { from: -360, to: 360, step: 30 }
 } as const;
 
-const qnum = (name: string) =>
-	z.preprocess(
-		(v) => (v === undefined || v === '' ? undefined : typeof v === 'string' ? Number(v) : v),
-		z.number({ message: `${name} must be a number` }).refine(Number.isFinite, `${name} must be a number`).optional()
-	);
-
 /** The query of an axle sweep: ?sweep=steer&from=-360&to=360&step=30 (defaults as the solve command's), steering_wheel held in heave/roll. */
 export const axleSweepQuery = z
 	.object({
 		sweep: z.enum(['heave', 'roll', 'steer'], { message: "sweep must be 'heave', 'roll' or 'steer'" }).default('heave'),
-		from: qnum('from'),
-		to: qnum('to'),
-		step: qnum('step'),
-		steering_wheel: qnum('steering_wheel'),
+		from: num('from'),
+		to: num('to'),
+		step: num('step'),
+		steering_wheel: num('steering_wheel'),
 		points: z.preprocess((v) => v === true || v === 'true' || v === '1', z.boolean()).optional()
 	})
 	.transform((q) => {

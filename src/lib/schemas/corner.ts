@@ -28,7 +28,8 @@ export const revisionInput = z.object({
 	geometry: cornerGeometrySchema
 });
 
-const num = (name: string) =>
+/** An optional number from a query string ("" = absent), the message naming the parameter. */
+export const num = (name: string) =>
 	z.preprocess(
 		(v) => (v === undefined || v === '' ? undefined : typeof v === 'string' ? Number(v) : v),
 		z.number({ message: `${name} must be a number` }).refine(Number.isFinite, `${name} must be a number`).optional()

@@ -136,7 +136,7 @@ describe('axle steer sweep', () => {
 		expect(res.error).toBeNull();
 		expect(res.samples.map((s) => s.steering_wheel)).toEqual([-180, -135, -90, -45, 0, 45, 90, 135, 180]);
 		const t = solver.track;
-		expect(t).toBeCloseTo(1400, 9);
+		expect(t).toBeCloseTo(1400, 9); // the contact points lie under the wheel centres, y = ±700 in planarSteer
 		for (const s of res.samples) {
 			const rack = (-s.steering_wheel! / 360) * 60; // rack_left_turn −y
 			// left side as built; the right side is its mirror image, so its turn is the mirror of the left's at −rack
@@ -257,6 +257,11 @@ describe('anti-roll bar', () => {
 		const roll = solver.sweep({ sweep: 'roll', from: -1, to: 1, step: 1 });
 		expect(roll.samples[1].bar_twist!).toBeCloseTo(0, 6);
 		expect(Math.sign(roll.samples[0].bar_twist!)).toBe(-Math.sign(roll.samples[2].bar_twist!));
+	});
+
+	it('refuses a drop link on a rocker the corner does not have, naming the field', () => {
+		const axle = parsed({ format: 'axle-geometry/1', left: { format: 'corner-geometry/1', ...planarSteer() }, right: 'mirror', anti_roll_bar: { ...bar, link_on: 'rocker' } });
+		expect(() => new AxleSolver(axle)).toThrow(/^anti_roll_bar\.link_on: the left corner has no rocker/);
 	});
 
 	it('leverAngle keeps the drop link at its length (checked by recomputing the distance)', () => {

@@ -2,9 +2,8 @@
 // A car revision pins a revision of each corner; saving refuses what cannot be analysed, naming the field, and
 // writes nothing then.
 import { error } from '@sveltejs/kit';
-import { AXLE_SWEEP_DEFAULTS } from '$lib/schemas/axle';
 import { carModelSchema, type CarModel, type CarRevisionInput } from '$lib/schemas/car-model';
-import { cornerGeometrySchema, type CornerGeometry } from '$lib/schemas/geometry';
+import { cornerGeometrySchema } from '$lib/schemas/geometry';
 import { db } from '$lib/server/db';
 import { recordAudit } from '$lib/server/db/queries/audit';
 import { appendCarRevision, cornerRevisionsOfCar, latestCornerRevisions } from '$lib/server/db/queries/car-revisions';
@@ -36,7 +35,7 @@ async function pinnedCorners(carId: string, pins: Record<string, string>): Promi
 	return out;
 }
 
-/** Figures of a model on corners, or 400 naming the field. */
+/** The car's figures (what the page and the API show of a car revision), or 400 naming the field. */
 export function figuresOrInvalid(model: CarModel, corners: CarCorners) {
 	try {
 		return carFigures(model, corners);
@@ -65,11 +64,6 @@ export async function loadCarRevision(row: { carId: string; model: unknown; corn
 	const model = carModelSchema.parse(row.model);
 	const corners = await pinnedCorners(row.carId, row.cornerRevisions);
 	return { model, corners };
-}
-
-/** Everything the car page and the API show of a car revision: the figures and each axle's bar figures. */
-export function analyseCar(model: CarModel, corners: CarCorners) {
-	return figuresOrInvalid(model, corners);
 }
 
 /** An axle of a car revision, solved as asked; the vehicle block comes from the car's own figures. */
@@ -101,5 +95,3 @@ export function axleSweep(car: CarRow, model: CarModel, corners: CarCorners, axl
 	}
 }
 
-export { AXLE_SWEEP_DEFAULTS };
-export type { CornerGeometry };

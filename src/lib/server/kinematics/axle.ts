@@ -134,10 +134,12 @@ export function leverAngle(pivot: readonly number[], arm: readonly number[], lin
 	return best;
 }
 
-/** A side's anti-roll bar points: the left ones as given, the right ones mirrored. */
+/** A side's anti-roll bar points (the left ones as given, the right ones mirrored) and its drop link's length at design. */
 function barSide(bar: AntiRollBar, side: 'left' | 'right') {
 	const f = (p: readonly number[]): [number, number, number] => (side === 'left' ? [p[0], p[1], p[2]] : [p[0], -p[1], p[2]]);
-	return { pivot: f(bar.pivot), arm: f(bar.arm_end), link: f(bar.link_end) };
+	const arm = f(bar.arm_end);
+	const link = f(bar.link_end);
+	return { pivot: f(bar.pivot), arm, link, length: Math.hypot(link[0] - arm[0], link[1] - arm[1], link[2] - arm[2]) };
 }
 
 /** The name under which a side's drop-link end is carried through the corner solve. */
@@ -161,6 +163,7 @@ export class AxleSolver {
 			const corner = side === 'left' ? axle.left : axle.right;
 			const withVehicle = axle.vehicle ? { ...corner, vehicle: axle.vehicle } : corner;
 			if (!this.bar) return withVehicle;
+			if (this.bar.link_on === 'rocker' && !corner.rocker) throw new SweepOptionsError(`anti_roll_bar.link_on: the ${side} corner has no rocker to carry the drop link`);
 			return { ...withVehicle, attached: [...(corner.attached ?? []), { name: LINK_POINT, body: this.bar.link_on, at: barSide(this.bar, side).link }] };
 		};
 		this.left = new CornerSolver(attach('left'));
@@ -279,10 +282,8 @@ export class AxleSolver {
 		const bar = this.bar!;
 		const angle = (side: 'left' | 'right', s: Sample) => {
 			const b = barSide(bar, side);
-			const d = this.design[side].points?.[LINK_POINT] ?? b.link;
-			const length = Math.hypot(d[0] - b.arm[0], d[1] - b.arm[1], d[2] - b.arm[2]);
 			const link = s.points?.[LINK_POINT];
-			return link ? leverAngle(b.pivot, b.arm, length, link, 0) : NaN;
+			return link ? leverAngle(b.pivot, b.arm, b.length, link, 0) : NaN;
 		};
 		const t = (angle('left', l) - angle('right', r)) / RAD;
 		return Number.isFinite(t) ? t : null;
@@ -320,10 +321,8 @@ export function barFigures(axle: AxleSolver): { lever_rate_left: number; lever_r
 		const res = (side === 'left' ? axle.left : axle.right).sweep(spec);
 		if (res.samples.length !== 3) return NaN;
 		const b = barSide(bar, side);
-		const d = res.samples[1].points![LINK_POINT];
-		const length = Math.hypot(d[0] - b.arm[0], d[1] - b.arm[1], d[2] - b.arm[2]);
-		const lo = leverAngle(b.pivot, b.arm, length, res.samples[0].points![LINK_POINT], 0);
-		const hi = leverAngle(b.pivot, b.arm, length, res.samples[2].points![LINK_POINT], 0);
+		const lo = leverAngle(b.pivot, b.arm, b.length, res.samples[0].points![LINK_POINT], 0);
+		const hi = leverAngle(b.pivot, b.arm, b.length, res.samples[2].points![LINK_POINT], 0);
 		return (hi - lo) / 2; // rad per mm
 	};
 	const rl = rate('left');
@@ -351,8 +350,7 @@ export function barReach(axle: AxleSolver, from = -50, to = 50, step = 5): { sid
 	for (const side of ['left', 'right'] as const) {
 		const res = (side === 'left' ? axle.left : axle.right).sweep({ sweep: 'heave', from, to, step, points: true });
 		const b = barSide(bar, side);
-		const length = Math.hypot(b.link[0] - b.arm[0], b.link[1] - b.arm[1], b.link[2] - b.arm[2]);
-		for (const s of res.samples) if (Number.isNaN(leverAngle(b.pivot, b.arm, length, s.points![LINK_POINT], 0))) return { side, travel: s.travel! };
+		for (const s of res.samples) if (Number.isNaN(leverAngle(b.pivot, b.arm, b.length, s.points![LINK_POINT], 0))) return { side, travel: s.travel! };
 	}
 	return null;
 }

@@ -90,12 +90,14 @@ export function axleInput(model: CarModel, corners: CarCorners, axle: AxleName, 
 	return { left, right, steering: a.steering ?? null, anti_roll_bar: a.anti_roll_bar ?? null, vehicle };
 }
 
-/** The design wheel positions of both axles (contact points), from a design heave sample of each corner. */
+/** An axle's solver, its failures named under the axle (`front.…`). */
 function solveAxle(input: AxleInput, axle: AxleName): AxleSolver {
 	try {
 		return new AxleSolver(input);
 	} catch (e) {
-		throw new CarModelError(axle, (e as Error).message);
+		// an axle field the solver names (e.g. `anti_roll_bar.link_on: …`) is named under this axle
+		const m = /^([a-z_]+(?:\.[a-z_]+)*): (.*)$/s.exec((e as Error).message);
+		throw m ? new CarModelError(`${axle}.${m[1]}`, m[2]) : new CarModelError(axle, (e as Error).message);
 	}
 }
 

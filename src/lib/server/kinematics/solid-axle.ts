@@ -23,6 +23,11 @@
 // Inner loop: all scratch is allocated once per solve (Float64Array, gl-matrix style).
 
 import { DEG, GRID_DECIMALS, GRID_TOL, MAX_SAMPLES, PARALLEL_TOL_RAD, RAD } from './constants';
+import { axisCosSin } from './pose';
+
+/** Scratch for one Gauss–Newton step's rotation (axis, [cos, sin]). */
+const stepAxis = new Float64Array(3);
+const stepCs = new Float64Array(2);
 
 /** A point [x, y, z] (mm). */
 export type SolidPoint = [number, number, number];
@@ -584,21 +589,13 @@ class Solver {
 			th = MAX_ROT_STEP;
 		}
 		if (th > 0) {
-			const c = Math.cos(th);
-			const sn = Math.sin(th);
-			const kx = wx / th;
-			const ky = wy / th;
-			const kz = wz / th;
-			const v = 1 - c;
-			E[0] = c + v * kx * kx;
-			E[1] = v * kx * ky - sn * kz;
-			E[2] = v * kx * kz + sn * ky;
-			E[3] = v * kx * ky + sn * kz;
-			E[4] = c + v * ky * ky;
-			E[5] = v * ky * kz - sn * kx;
-			E[6] = v * kx * kz - sn * ky;
-			E[7] = v * ky * kz + sn * kx;
-			E[8] = c + v * kz * kz;
+			// the step's rotation by Rodrigues' formula (pose.ts, the corner solver's)
+			stepAxis[0] = wx / th;
+			stepAxis[1] = wy / th;
+			stepAxis[2] = wz / th;
+			stepCs[0] = Math.cos(th);
+			stepCs[1] = Math.sin(th);
+			axisCosSin(E, stepAxis, stepCs);
 			for (let i = 0; i < 3; i++) {
 				for (let j = 0; j < 3; j++) T[3 * i + j] = E[3 * i] * R[j] + E[3 * i + 1] * R[3 + j] + E[3 * i + 2] * R[6 + j];
 			}

@@ -1,34 +1,23 @@
 // Car revisions: immutable snapshots of a car's own model pinning one revision of each corner.
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
+import { retryingNumberRace } from './numbering';
 import { carRevisions, cars, corners, memberships, revisions, users } from '../schema';
-
-const UNIQUE_VIOLATION = '23505';
-
-/** True when an insert lost the race for the next number. */
-function isNumberRace(e: unknown) {
-	const cause = (e as { cause?: { code?: string; constraint_name?: string } }).cause ?? (e as { code?: string; constraint_name?: string });
-	return cause?.code === UNIQUE_VIOLATION && cause.constraint_name === 'car_revisions_car_number_key';
-}
 
 export type NewCarRevision = Omit<typeof carRevisions.$inferInsert, 'number' | 'createdAt'>;
 
 /** Appends a car revision with the next number; `alongside` writes (the audit event) commit with it or not at all. */
 export async function appendCarRevision(db: Database, input: NewCarRevision, alongside?: (tx: Database, row: typeof carRevisions.$inferSelect) => Promise<void>) {
-	for (let attempt = 0; ; attempt++) {
-		try {
-			return await db.transaction(async (tx) => {
-				const [row] = await tx
-					.insert(carRevisions)
-					.values({ ...input, number: sql`(select coalesce(max(${carRevisions.number}), 0) + 1 from ${carRevisions} where ${carRevisions.carId} = ${input.carId})` })
-					.returning();
-				if (alongside) await alongside(tx as unknown as Database, row);
-				return row;
-			});
-		} catch (e) {
-			if (!isNumberRace(e) || attempt >= 20) throw e;
-		}
-	}
+	return retryingNumberRace('car_revisions_car_number_key', () =>
+		db.transaction(async (tx) => {
+			const [row] = await tx
+				.insert(carRevisions)
+				.values({ ...input, number: sql`(select coalesce(max(${carRevisions.number}), 0) + 1 from ${carRevisions} where ${carRevisions.carId} = ${input.carId})` })
+				.returning();
+			if (alongside) await alongside(tx as unknown as Database, row);
+			return row;
+		})
+	);
 }
 
 /** A car's revisions, newest first, with their authors' names (without the model). */

@@ -1,6 +1,7 @@
 // Corners and their immutable revisions, reached through the caller's memberships.
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
+import { retryingNumberRace } from './numbering';
 import { createHash } from 'node:crypto';
 import { cars, corners, memberships, revisions, uploads, users, type Corner } from '../schema';
 
@@ -110,13 +111,6 @@ export interface NewRevision {
 	authorId: string | null;
 }
 
-const UNIQUE_VIOLATION = '23505';
-
-/** True for the unique-number race between two saves of one corner. */
-function isNumberRace(e: unknown) {
-	const cause = (e as { cause?: { code?: string; constraint_name?: string } }).cause ?? (e as { code?: string; constraint_name?: string });
-	return cause?.code === UNIQUE_VIOLATION && cause.constraint_name === 'revisions_corner_number_key';
-}
 
 /**
  * Appends a revision with the next number, and the original upload it came from if any, in one
@@ -129,27 +123,23 @@ export async function appendRevision(
 	/** more writes that must commit with the revision or not at all (the corner's kind, the audit event) */
 	alongside?: (tx: Database, row: typeof revisions.$inferSelect) => Promise<void>
 ) {
-	for (let attempt = 0; ; attempt++) {
-		try {
-			return await db.transaction(async (tx) => {
-				const [row] = await tx
-					.insert(revisions)
-					.values({
-						...input,
-						number: sql`(select coalesce(max(${revisions.number}), 0) + 1 from ${revisions} where ${revisions.cornerId} = ${input.cornerId})`
-					})
-					.returning();
-				if (upload) {
-					const sha256 = createHash('sha256').update(upload.bytes).digest('hex');
-					await tx.insert(uploads).values({ ...upload, revisionId: row.id, sizeBytes: upload.bytes.length, sha256 });
-				}
-				if (alongside) await alongside(tx as unknown as Database, row);
-				return row;
-			});
-		} catch (e) {
-			if (!isNumberRace(e) || attempt >= 20) throw e;
-		}
-	}
+	return retryingNumberRace('revisions_corner_number_key', () =>
+		db.transaction(async (tx) => {
+			const [row] = await tx
+				.insert(revisions)
+				.values({
+					...input,
+					number: sql`(select coalesce(max(${revisions.number}), 0) + 1 from ${revisions} where ${revisions.cornerId} = ${input.cornerId})`
+				})
+				.returning();
+			if (upload) {
+				const sha256 = createHash('sha256').update(upload.bytes).digest('hex');
+				await tx.insert(uploads).values({ ...upload, revisionId: row.id, sizeBytes: upload.bytes.length, sha256 });
+			}
+			if (alongside) await alongside(tx as unknown as Database, row);
+			return row;
+		})
+	);
 }
 
 /** Points the corner's baseline at one of its revisions (revisions themselves never change). */

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { endpoint } from '$lib/server/api';
-import { analyseCar, loadCarRevision } from '$lib/server/cars/model';
+import { figuresOrInvalid, loadCarRevision } from '$lib/server/cars/model';
 import { requireCarRevision } from '$lib/server/permissions';
 import type { RequestEvent } from './$types';
 
@@ -8,5 +8,5 @@ import type { RequestEvent } from './$types';
 export const GET = endpoint<RequestEvent>(async (event) => {
 	const { carRevision: r } = await requireCarRevision(event, event.params.carRevisionId, 'view');
 	const { model, corners } = await loadCarRevision(r);
-	return json({ id: r.id, carId: r.carId, number: r.number, label: r.label, note: r.note, createdAt: r.createdAt, model, corners: r.cornerRevisions, figures: analyseCar(model, corners) });
+	return json({ id: r.id, carId: r.carId, number: r.number, label: r.label, note: r.note, createdAt: r.createdAt, model, corners: r.cornerRevisions, figures: figuresOrInvalid(model, corners) });
 });
