@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { expect, test } from '@playwright/test';
-import { signIn } from './helpers';
+import { settled, signIn } from './helpers';
 
 const FRONT_LEFT = '/corners/00000000-0000-4000-8000-0000000000f1';
 const stock = JSON.parse(readFileSync('fixtures/demo/front-left-stock.json', 'utf8'));
@@ -29,6 +29,7 @@ test('the engineer imports the inch scanner CSV, aligns it onto the baseline and
 test('a bad CSV shows the message naming the row and column, and nothing is saved', async ({ page }) => {
 	await signIn(page, 'engineer@linkwright.test');
 	await page.goto(`${FRONT_LEFT}/import`);
+	await settled(page); // a file chosen before hydration is not read, and Preview stays disabled
 	await page.getByLabel('CSV file (at most 5 MB)').setInputFiles({
 		name: 'bad.csv',
 		mimeType: 'text/csv',
