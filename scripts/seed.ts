@@ -223,7 +223,12 @@ export const DEMO_SINGLE_SEATER_MODEL: CarModel = {
 		steering: { rack_travel_per_turn: 60, rack_left_turn: '+y' },
 		anti_roll_bar: { pivot: [-130, 420, 260], arm_end: [20, 420, 260], link_end: [20, 420, 112], link_on: 'lower', torsional_stiffness: 30 }
 	},
-	rear: { unsprung_mass: 16, spring_rate: 110, tyre_rate: 260, right: 'mirror', steering: null, anti_roll_bar: null }
+	rear: { unsprung_mass: 16, spring_rate: 110, tyre_rate: 260, right: 'mirror', steering: null, anti_roll_bar: null },
+	keep_out: [
+		// invented: a 13-inch rim's barrel with 8 mm kept clear of the brake caliper's outer edge, and the gearbox casing
+		{ shape: 'rim', name: 'Front rim barrel', axle: 'front', barrel_radius: 150, clearance: 8, inboard: 75, outboard: 60 },
+		{ shape: 'box', name: 'Gearbox casing', min: [-2400, -170, 120], max: [-2050, 170, 330] }
+	]
 };
 export const DEMO_CAR_REVISION_ID = '00000000-0000-4000-8000-0000000c0201';
 

@@ -31,6 +31,37 @@ export const REQUIRED_POINTS = Object.fromEntries(KIND_SPECS.map((k) => [k.kind,
 	readonly string[]
 >;
 
+/**
+ * The straight members of a kind, read from its joints, as pairs of point names: each arm from its pivot axis to
+ * its ball joint (an arm that carries the upright rigidly: to the spin axis, and along its pivot axis), each rod
+ * from its inner to its outer joint, and the strut (lower point to top mount) as `strut`.
+ */
+export function kindMembers(kind: string): { links: [string, string][]; strut: [string, string] | null } {
+	const spec = kindSpec(kind);
+	const links: [string, string][] = [];
+	let strut: [string, string] | null = null;
+	const pivotOf = (body: string) => spec.joints.find((q) => q.type === 'pivot' && q.body === body);
+	for (const j of spec.joints) {
+		if (j.type === 'ball') {
+			const pivot = pivotOf(j.body);
+			if (pivot && pivot.type === 'pivot') links.push([pivot.axis[0], j.at], [pivot.axis[1], j.at]);
+		} else if (j.type === 'rod') links.push([j.inner, j.outer]);
+		else if (j.type === 'slider') strut = [j.lower, j.top];
+		else if (j.type === 'rigid') {
+			const pivot = pivotOf(j.body);
+			if (pivot && pivot.type === 'pivot') links.push([pivot.axis[0], 'wheel.axis_inner'], [pivot.axis[1], 'wheel.axis_inner'], [pivot.axis[0], pivot.axis[1]]);
+		}
+	}
+	return { links, strut };
+}
+
+/** The rocker's straight members (table names): its pivot axis, the rod to it, and the line between its joints. */
+export const ROCKER_MEMBERS: readonly [string, string][] = [
+	['rocker.pivot_a', 'rocker.pivot_b'],
+	['rocker.rod_end', 'rocker.rod_outer'],
+	['rocker.rod_end', 'rocker.spring_end']
+];
+
 /** The kinds' labels for pickers and headings. */
 export const KIND_LABELS = Object.fromEntries(KIND_SPECS.map((k) => [k.kind, k.label])) as Record<CornerKind, string>;
 

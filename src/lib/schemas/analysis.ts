@@ -2,6 +2,7 @@
 // Client-safe: zod only. Lengths in mm, angles in degrees, travel = heave wheel travel (+ bump).
 import { z } from 'zod';
 import { LINKAGE_POINT_NAMES } from '../kinds';
+import { keepOutListSchema } from './keep-out';
 
 /** Points a fix may move or a tolerance may apply to: every kind's linkage and rocker points, not the wheel or the spring ends. */
 export const MOVABLE_POINTS = LINKAGE_POINT_NAMES;
@@ -48,6 +49,25 @@ export const fixSearchInput = z
 			.max(6, 'at most 6 measures'),
 		travel: travelSchema.default({ from: -40, to: 40, step: 2 }),
 		starts: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(1, 'must be ≥ 1').max(16, 'must be ≤ 16').default(5),
+		/** keep-out volumes (the car model's `keep_out` entries): moved points and the members ending on them stay out */
+		keepOut: keepOutListSchema.default([]),
+		/** the steering system: the steering range the volumes are checked through, and the steering ratio's band */
+		steering: z
+			.object({
+				rackTravelPerTurn: z.number({ message: 'must be a number (mm of rack travel per steering-wheel turn)' }).gt(0, 'must be > 0 mm per turn (a rack that does not move cannot steer)').max(500, 'must be at most 500 mm per turn'),
+				/** steering-wheel degrees each way from straight ahead */
+				lock: z.number({ message: 'must be a number (steering-wheel degrees each way)' }).gt(0, 'must be > 0°').max(1080, 'must be at most 1080° (three turns)').default(360),
+				/** hold this wheel's overall steering ratio (steering-wheel ° per road-wheel °) inside min…max through the range */
+				ratio: z
+					.object({
+						min: z.number({ message: 'must be a number (:1)' }).positive('must be > 0'),
+						max: z.number({ message: 'must be a number (:1)' }).positive('must be > 0'),
+						weight: z.number({ message: 'must be a number' }).positive('must be > 0').max(1000, 'must be ≤ 1000').default(1)
+					})
+					.refine((r) => r.min < r.max, { path: ['max'], message: 'must be greater than min' })
+					.optional()
+			})
+			.optional(),
 		/** store the result in this study of the corner (needs edit rights) */
 		study: z.string().trim().min(1, 'name is required').max(120, 'at most 120 characters').optional()
 	})

@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { antiRollBarSchema, steeringSchema } from './axle';
 import { solidAxleSchema } from './solid-axle';
+import { keepOutListSchema } from './keep-out';
 
 const mm = (what: string) => z.number({ error: `must be a number (mm, ${what})` }).refine((v) => Math.abs(v) <= 100_000, 'is implausibly large (mm expected)');
 
@@ -39,7 +40,9 @@ export const carModelSchema = z.object({
 		.max(50, 'at most 50 mass items')
 		.refine((items) => new Set(items.map((i) => i.name.toLowerCase())).size === items.length, 'two mass items have the same name'),
 	front: axleModelSchema.refine((a) => !a.solid, { path: ['solid'], message: 'a solid axle is taken on the rear axle only' }),
-	rear: axleModelSchema
+	rear: axleModelSchema,
+	/** space the suspension must stay out of (packaging): the fix search keeps moved points and their rods out of it */
+	keep_out: keepOutListSchema.default([])
 });
 export type CarModel = z.infer<typeof carModelSchema>;
 
@@ -61,6 +64,7 @@ export function starterModel(wheelbase = 2600, cgHeight = 400): CarModel {
 			{ name: 'Driver', mass: 75, x: -wheelbase * 0.45, y: 0, z: cgHeight * 0.8 }
 		],
 		front: { unsprung_mass: 20, spring_rate: 60, tyre_rate: null, right: 'mirror', steering: { rack_travel_per_turn: 50, rack_left_turn: '-y' }, anti_roll_bar: null },
-		rear: { unsprung_mass: 22, spring_rate: 70, tyre_rate: null, right: 'mirror', steering: null, anti_roll_bar: null }
+		rear: { unsprung_mass: 22, spring_rate: 70, tyre_rate: null, right: 'mirror', steering: null, anti_roll_bar: null },
+		keep_out: []
 	};
 }

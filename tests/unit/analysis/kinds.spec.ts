@@ -26,6 +26,6 @@ describe('analyses by kind', () => {
 
 	it('a fix search fitting caster on a semi-trailing arm is refused naming measures.0.key', () => {
 		const input = fixSearchInput.parse({ free: [{ point: 'arm.rear', axis: 'z', bound: 10 }], target: { kind: 'zero' }, measures: [{ key: 'caster', weight: 1 }], travel: { from: -40, to: 40, step: 10 } });
-		expect(() => runFixSearch(fixture('road-rear-left-semi-trailing'), input, null)).toThrow(expect.objectContaining({ status: 400, body: expect.objectContaining({ field: 'measures.0.key' }) }));
+		expect(() => runFixSearch(fixture('road-rear-left-semi-trailing'), input, null, 'rear')).toThrow(expect.objectContaining({ status: 400, body: expect.objectContaining({ field: 'measures.0.key' }) }));
 	});
 });

@@ -3,7 +3,7 @@
 // Frame: ISO 8855 vehicle axes, x forward, y left, z up, millimetres, z = 0 the ground.
 // three.js is y-up, so every vehicle point (x, y, z) is drawn at three (X, Y, Z) = (y, z, x): a cyclic permutation,
 // hence still right-handed, with vehicle z up on screen. One three unit is one millimetre.
-import { kindSpec } from '$lib/kinds';
+import { kindMembers, kindSpec } from '$lib/kinds';
 import { BufferGeometry, CylinderGeometry, DoubleSide, Float32BufferAttribute, Group, Line, LineBasicMaterial, LineDashedMaterial, LineLoop, Mesh, MeshBasicMaterial, MeshLambertMaterial, Vector3, type Color, type Sprite } from 'three';
 import { disposeTree, placeRod, scratchA, scratchB, setSegment, toWorld, Y_AXIS, type SharedGeometry } from './basics';
 import { makeLabel } from './labels';
@@ -36,19 +36,7 @@ interface KindDrawing {
 /** The drawing of `kind`. */
 function drawingOf(kind: string): KindDrawing {
 	const spec = kindSpec(kind);
-	const links: [string, string][] = [];
-	let strut: [string, string] | null = null;
-	for (const j of spec.joints) {
-		if (j.type === 'ball') {
-			const pivot = spec.joints.find((q) => q.type === 'pivot' && q.body === j.body);
-			if (pivot && pivot.type === 'pivot') links.push([pivot.axis[0], j.at], [pivot.axis[1], j.at]);
-		} else if (j.type === 'rod') links.push([j.inner, j.outer]);
-		else if (j.type === 'slider') strut = [j.lower, j.top];
-		else if (j.type === 'rigid') {
-			const pivot = spec.joints.find((q) => q.type === 'pivot' && q.body === j.body);
-			if (pivot && pivot.type === 'pivot') links.push([pivot.axis[0], 'wheel.axis_inner'], [pivot.axis[1], 'wheel.axis_inner'], [pivot.axis[0], pivot.axis[1]]);
-		}
-	}
+	const { links, strut } = kindMembers(kind);
 	const a = spec.steeringAxis;
 	const axis: [string, string] | null = a.type === 'points' ? [a.lower, strut && a.upper === strut[1] ? strut[0] : a.upper] : null;
 	const upright = spec.points.filter((p) => (p.body === 'upright' || p.body === 'arm') && !p.name.startsWith('wheel.')).map((p) => p.name);

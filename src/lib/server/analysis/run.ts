@@ -1,6 +1,6 @@
 // The app's side of the analyses: request → engine input, engine result → JSON, engine failures → 400s.
 // The maths lives in $lib/server/kinematics; this file only translates.
-import { joinRocker, measuresNotApplying, splitRocker } from '$lib/kinds';
+import { joinRocker, kindSpec, measuresNotApplying, splitRocker } from '$lib/kinds';
 import { error } from '@sveltejs/kit';
 import { AXIS_NAMES, MOVABLE_POINTS, type FixSearchRequest, type ToleranceStudyRequest } from '$lib/schemas/analysis';
 import type { CornerGeometry } from '$lib/schemas/geometry';
@@ -33,12 +33,43 @@ function evaluatorOrFail(geometry: CornerGeometry, travel: { from: number; to: n
 	}
 }
 
-/** Runs a fix search on `geometry`; `targetGeometry` is the revision whose curves are the target (or null). */
-export function runFixSearch(geometry: CornerGeometry, input: FixSearchRequest, targetGeometry: CornerGeometry | null): FixSearchResult & { note: string } {
+/** The packaging part of a fix search request for a corner on `axle`, or undefined when it asks for none. */
+function packagingOf(geometry: CornerGeometry, input: FixSearchRequest, axle: 'front' | 'rear') {
+	const steering = input.steering;
+	const volumes = input.keepOut.filter((v) => v.shape !== 'rim' || v.axle === axle);
+	if (!volumes.length && !steering?.ratio) return undefined;
+	const steers = kindSpec(geometry.kind).steers;
+	if (steering && !steers) error(400, { message: 'steering: this corner kind does not steer (leave the steering out)', code: 'invalid', field: 'steering' });
+	const lockRack = steering ? (steering.lock * steering.rackTravelPerTurn) / 360 : 0;
+	return {
+		spec: {
+			volumes,
+			racks: lockRack ? [-lockRack, lockRack] : [],
+			moved: [...new Set(input.free.map((f) => f.point))],
+			ratio: steering ? { perTurn: steering.rackTravelPerTurn, lockRack } : null
+		},
+		ratioBand: steering?.ratio ? ([steering.ratio.min, steering.ratio.max] as [number, number]) : null,
+		ratioWeight: steering?.ratio?.weight ?? 1
+	};
+}
+
+/**
+ * Runs a fix search on `geometry` (a corner on `axle`); `targetGeometry` is the revision whose curves are the
+ * target (or null). Rim volumes of the other axle are left out; the result names those it checked.
+ */
+export function runFixSearch(geometry: CornerGeometry, input: FixSearchRequest, targetGeometry: CornerGeometry | null, axle: 'front' | 'rear'): FixSearchResult & { note: string } {
 	input.free.forEach((f, i) => needPoint(geometry, f.point, `free.${i}.point`));
 	input.measures.forEach((m, i) => needMeasure(geometry, m.key, `measures.${i}.key`));
 	const keys = input.measures.map((m) => m.key);
 	const n = evaluatorOrFail(geometry, input.travel, keys).count;
+	const packaging = packagingOf(geometry, input, axle);
+	if (packaging) {
+		try {
+			new CornerEvaluator(geometry, input.travel, keys, packaging.spec);
+		} catch (e) {
+			error(400, { message: `steering: ${(e as Error).message}`, code: 'invalid', field: 'steering' });
+		}
+	}
 	let targets: Float64Array | null = null;
 	if (input.target.kind === 'revision') {
 		const ev = evaluatorOrFail(targetGeometry!, input.travel, keys);
@@ -52,7 +83,8 @@ export function runFixSearch(geometry: CornerGeometry, input: FixSearchRequest, 
 		grid: input.travel,
 		free: input.free.map((f) => ({ point: f.point, axis: axisIndex(f.axis), min: -f.bound, max: f.bound })),
 		measures: input.measures.map((m, j) => ({ key: m.key, weight: m.weight, band, target: targets ? targets.subarray(j * n, (j + 1) * n) : undefined })),
-		starts: input.starts
+		starts: input.starts,
+		packaging
 	});
 	return { ...result, note: movesNote(result.free) };
 }

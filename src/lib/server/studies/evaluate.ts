@@ -3,10 +3,11 @@
 // few chosen measures, the points offset by given amounts, into a caller's Float64Array.
 
 import { DEG } from '../kinematics/constants';
-import { compileCorner, flatPoints, isFault, type CornerInput, type PointTuple } from '../kinematics/corner';
+import { compileCorner, flatPoints, isFault, type CornerInput, type CornerModel, type PointTuple } from '../kinematics/corner';
 import * as F from '../kinematics/measures';
 import { OK } from '../kinematics/solve';
 import { gridCount, runSweep, SweepBuffer, type SweepSpec } from '../kinematics/sweep';
+import { PackagingCheck, type PackagingSpec, type Reach } from './packaging';
 
 /** Curve measures an analysis may ask for, with their column and whether they are angles (degrees out). */
 export const CURVE_MEASURES = {
@@ -52,15 +53,21 @@ export class CornerEvaluator {
 	private readonly spec: SweepSpec;
 	private readonly fields: number[];
 	private readonly scale: number[];
+	/** the packaging check (keep-out volumes, steering ratio), when asked for */
+	readonly packaging: PackagingCheck | null = null;
 
-	/** `corner` a validated corner file, `grid` the heave grid (mm), `measures` the curves to record. */
+	/**
+	 * `corner` a validated corner file, `grid` the heave grid (mm), `measures` the curves to record; `packaging` adds
+	 * the keep-out and steering-ratio checks (throws, naming the rack, when the corner as it is cannot reach them).
+	 */
 	constructor(
 		corner: CornerInput,
 		grid: HeaveGrid,
-		readonly measures: readonly CurveMeasure[]
+		readonly measures: readonly CurveMeasure[],
+		packaging?: PackagingSpec
 	) {
 		this.count = gridCount(grid.from, grid.to, grid.step);
-		this.spec = { sweep: F.SWEEP_HEAVE, from: grid.from, to: grid.to, step: grid.step, rack: 0, points: false };
+		this.spec = { sweep: F.SWEEP_HEAVE, from: grid.from, to: grid.to, step: grid.step, rack: 0, points: !!packaging };
 		this.base = clonePoints(flatPoints(corner));
 		this.work = clonePoints(flatPoints(corner));
 		this.input = { ...corner, points: this.work };
@@ -68,6 +75,15 @@ export class CornerEvaluator {
 		this.scale = measures.map((m) => (CURVE_MEASURES[m].angle ? DEG : 1));
 		const first = this.solve(new Float64Array(measures.length * this.count));
 		if (!first) throw new Error('the corner cannot be assembled over the whole range as it is');
+		if (packaging) {
+			const m = compileCorner(this.input) as CornerModel;
+			this.packaging = new PackagingCheck(m, packaging, this.spec, this.count, corner.kind);
+			const depths = new Float64Array(packaging.volumes.length * this.packaging.rows);
+			const ratios = new Float64Array(this.packaging.ratioCount);
+			if (!this.solve(new Float64Array(measures.length * this.count), depths, ratios)) {
+				throw new Error(`the corner as it is cannot be assembled through the travel with the rack held at ${this.packaging.racks.filter((r) => r !== 0).map((r) => `${r > 0 ? '+' : ''}${r.toFixed(1)} mm`).join(' and ')} (the steering lock) or steered to lock`);
+			}
+		}
 		this.positions = Float64Array.from(this.buffer.positions.subarray(0, this.count));
 		this.design = this.positions.findIndex((p) => Math.abs(p) < 1e-9);
 		if (this.design < 0) throw new Error('the travel range must include 0 (design) on its step grid');
@@ -82,21 +98,43 @@ export class CornerEvaluator {
 	 * Solve with coords[i] offset by offsets[i] (mm) and write measure j at position k into
 	 * out[j * count + k] (degrees or mm). False when the corner cannot be assembled somewhere on the range.
 	 */
-	evaluate(coords: readonly Coordinate[], offsets: ArrayLike<number>, out: Float64Array): boolean {
+	evaluate(coords: readonly Coordinate[], offsets: ArrayLike<number>, out: Float64Array, depths?: Float64Array, ratios?: Float64Array): boolean {
+		this.move(coords, offsets);
+		const ok = this.solve(out, depths, ratios);
+		this.restore(coords);
+		return ok;
+	}
+
+	/** Each keep-out volume's deepest reach with coords moved by offsets (null: no packaging, or not assembled). */
+	reaches(coords: readonly Coordinate[], offsets: ArrayLike<number>): Reach[] | null {
+		if (!this.packaging) return null;
+		this.move(coords, offsets);
+		const m = compileCorner(this.input);
+		let out: Reach[] | null = null;
+		if (!isFault(m)) {
+			runSweep(m, this.spec, this.buffer);
+			if (this.buffer.failCode === OK && this.buffer.lo === 0 && this.buffer.hi === this.count - 1) out = this.packaging.reaches(m, this.buffer);
+		}
+		this.restore(coords);
+		return out;
+	}
+
+	private move(coords: readonly Coordinate[], offsets: ArrayLike<number>): void {
 		for (let i = 0; i < coords.length; i++) {
 			const c = coords[i];
 			this.work[c.point][c.axis] += offsets[i];
 		}
-		const ok = this.solve(out);
+	}
+
+	private restore(coords: readonly Coordinate[]): void {
 		for (let i = 0; i < coords.length; i++) {
 			const c = coords[i];
 			this.work[c.point][c.axis] = this.base[c.point][c.axis];
 		}
-		return ok;
 	}
 
-	/** Solve the work points; false when the model faults or any position fails. */
-	private solve(out: Float64Array): boolean {
+	/** Solve the work points; false when the model faults or any position fails (packaging too, when asked). */
+	private solve(out: Float64Array, depths?: Float64Array, ratios?: Float64Array): boolean {
 		const m = compileCorner(this.input);
 		if (isFault(m)) return false;
 		const buf = this.buffer;
@@ -113,6 +151,7 @@ export class CornerEvaluator {
 				out[j * n + k] = v * s;
 			}
 		}
+		if (this.packaging && depths && ratios) return this.packaging.measure(m, buf, depths, ratios);
 		return true;
 	}
 }

@@ -21,7 +21,7 @@ export const POST = endpoint<RequestEvent>(async (event) => {
 		if (!row) invalid('target.revisionId', 'not a revision of this corner');
 		target = parseWith(cornerGeometrySchema, row.geometry);
 	}
-	const result = runFixSearch(geometry, input, target);
+	const result = runFixSearch(geometry, input, target, corner.position.startsWith('front') ? 'front' : 'rear');
 	let studyId: string | null = null;
 	if (input.study) {
 		const { study, ...settings } = input;
