@@ -41,7 +41,11 @@ describe('validation: 400 naming the field', () => {
 		[{ free: [{ point: 'strut.top', axis: 'z', bound: 5 }] }, 'free.0.point', /this corner has no point strut\.top/],
 		[{ measures: [{ key: 'toe', weight: -1 }] }, 'measures.0.weight', /must be > 0/],
 		[{ travel: { from: -40, to: 40, step: 3 } }, 'travel.step', /travel 0 is on the grid/],
-		[{ target: { kind: 'revision', revisionId: '00000000-0000-4000-8000-000000000000' } }, 'target.revisionId', /not a revision of this corner/]
+		[{ target: { kind: 'revision', revisionId: '00000000-0000-4000-8000-000000000000' } }, 'target.revisionId', /not a revision of this corner/],
+		[{ keepOut: [{ shape: 'box', name: 'Gearbox', min: [0, 0, 0], max: [100, 100, 0] }] }, 'keepOut.0.max.2', /zero size along z/],
+		[{ keepOut: [{ shape: 'rim', name: 'Rim', axle: 'front', barrel_radius: 180, clearance: 10, inboard: 0, outboard: 0 }] }, 'keepOut.0.outboard', /zero width/],
+		[{ steering: { rackTravelPerTurn: 0 } }, 'steering.rackTravelPerTurn', /must be > 0 mm per turn/],
+		[{ steering: { rackTravelPerTurn: 50, ratio: { min: 16, max: 12 } } }, 'steering.ratio.max', /greater than min/]
 	])('fix search %#', async (body, field, message) => {
 		const res = await search(engineer, body);
 		expect(res.status).toBe(400);
@@ -61,6 +65,34 @@ describe('validation: 400 naming the field', () => {
 		const { error } = await res.json();
 		expect(error.field).toBe(field);
 		expect(error.message).toMatch(message);
+	});
+});
+
+describe('packaging in the fix search', () => {
+	// invented: a rim barrel of 180 mm inner radius less 8 mm clearance; the demo's outer tie-rod joint sits 177 mm from
+	// the spin axis, so the tie rod already reaches into it and ±3 mm of joint height cannot take it out
+	const rim = { shape: 'rim', name: 'Rim barrel', axle: 'front', barrel_radius: 180, clearance: 8, inboard: 90, outboard: 60 };
+	test('a rim the tie rod cannot leave: 200, the search names it as what stops every fix', async () => {
+		const res = await search(engineer, { free: [{ point: 'steer.outer', axis: 'z', bound: 3 }], keepOut: [rim], travel: { from: -40, to: 40, step: 4 } });
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.packaging.blocked).toMatchObject({ volume: 'Rim barrel', member: 'steer.inner–steer.outer' });
+		expect(body.packaging.volumes[0]).toMatchObject({ name: 'Rim barrel', status: 'collides' });
+	});
+	test('a rear rim is left out of a front corner; the steering ratio is reported through the lock', async () => {
+		const res = await search(engineer, { keepOut: [{ ...rim, axle: 'rear' }], steering: { rackTravelPerTurn: 60, lock: 180 }, travel: { from: -40, to: 40, step: 4 } });
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.packaging.volumes).toEqual([]);
+		expect(body.packaging.ratio.angles).toEqual([-180, -135, -90, -45, 0, 45, 90, 135, 180]);
+		expect(body.packaging.racks).toEqual([0, -30, 30]);
+	});
+	test('steering on a corner kind that does not steer: 400 naming steering', async () => {
+		const list = (await (await engineer.fetch(`/api/v1/corners/00000000-0000-4000-8000-0000000003e1/revisions`)).json()).revisions as { id: string }[];
+		expect(list.length).toBeGreaterThan(0);
+		const res = await engineer.json(`/api/v1/revisions/${list[0].id}/fix-search`, 'POST', { free: [{ point: 'arm.rear', axis: 'z', bound: 5 }], target: { kind: 'zero' }, measures: [{ key: 'toe', weight: 1 }], steering: { rackTravelPerTurn: 50 } });
+		expect(res.status).toBe(400);
+		expect((await res.json()).error.field).toBe('steering');
 	});
 });
 
