@@ -64,7 +64,35 @@ export function run(): void {
 	line('  sweep evaluations per search', `${last.evaluations}`, '(figure)');
 	line('  time per evaluation (41-position sweep, incl. the fit)', `${perEval.toFixed(1)} µs`, '(figure)');
 	line('  toe: largest error against stock after the search', `${last.measures[0].maxAfter.toFixed(4)}°`, '<= 0.05°');
+	packaging(req);
 	perKind();
+}
+
+/**
+ * The same search with packaging (issue 16): an invented rim barrel and gearbox box, the travel checked at
+ * straight ahead and ±1 turn of a 60 mm/turn rack, and this wheel's steering ratio held in 11–14:1.
+ */
+function packaging(req: FixSearchInput): void {
+	const withPack: FixSearchInput = {
+		...req,
+		packaging: {
+			spec: {
+				volumes: [
+					{ shape: 'rim', name: 'Rim barrel', barrel_radius: 200, clearance: 10, inboard: 90, outboard: 60 },
+					{ shape: 'box', name: 'Gearbox', min: [-2400, -170, 120], max: [-2050, 170, 330] }
+				],
+				racks: [-60, 60],
+				moved: ['steer.inner', 'steer.outer'],
+				ratio: { perTurn: 60, lockRack: 60 }
+			},
+			ratioBand: [11, 14],
+			ratioWeight: 1
+		}
+	};
+	const { ms, last } = timed(withPack);
+	line('  with 2 keep-out volumes at 3 rack positions + ratio band, median', `${ms.toFixed(1)} ms`, '(figure)');
+	line('    evaluations per search', `${last.evaluations}`, '(figure)');
+	line('    blocked by a volume', last.packaging?.blocked ? last.packaging.blocked.volume : 'no', '(figure)');
 }
 
 /** A fix search of one kind: `broken` fitted back to `stock` on `measures`, with `free` coordinates (±15 mm). */

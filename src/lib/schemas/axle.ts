@@ -149,3 +149,12 @@ export const axleSweepQuery = z
 	.refine((q) => q.step > 0, { path: ['step'], message: 'step must be > 0' })
 	.refine((q) => q.from <= q.to, { path: ['from'], message: 'from must be <= to' })
 	.refine((q) => q.steering_wheel === undefined || q.sweep !== 'steer', { path: ['steering_wheel'], message: 'steering_wheel is held only in a heave or roll sweep' });
+
+/** The query of a car's pitch sweep: ?from=-3&to=3&step=0.25, body pitch in degrees (+ = nose down), at most 10° each way. */
+export const pitchSweepQuery = z
+	.object({ from: num('from'), to: num('to'), step: num('step') })
+	.transform((q) => ({ from: q.from ?? -3, to: q.to ?? 3, step: q.step ?? 0.25 }))
+	.refine((q) => q.step > 0, { path: ['step'], message: 'step must be > 0' })
+	.refine((q) => q.from <= 0 && q.to >= 0, { path: ['from'], message: 'the range must include 0 (design)' })
+	.refine((q) => q.from >= -10 && q.to <= 10, { path: ['from'], message: 'pitch must stay within ±10°' })
+	.refine((q) => (q.to - q.from) / q.step <= 400, { path: ['step'], message: 'gives more than 401 positions' });

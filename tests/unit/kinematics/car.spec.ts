@@ -5,7 +5,8 @@
 import { describe, expect, it } from 'vitest';
 import { carModelSchema, type CarModel } from '../../../src/lib/schemas/car-model';
 import { parseCornerGeometry, type CornerGeometry } from '../../../src/lib/schemas/geometry';
-import { carFigures, CarModelError } from '../../../src/lib/server/kinematics/car';
+import { carFigures, CarModelError, pitchSweep } from '../../../src/lib/server/kinematics/car';
+import { pitchSweepQuery } from '../../../src/lib/schemas/axle';
 import { solveSweep } from '../../../src/lib/server/kinematics/index';
 import * as V from '../../../src/lib/server/kinematics/vehicle';
 import { fixture } from './helpers';
@@ -189,5 +190,60 @@ describe('a car with a solid rear axle', () => {
 	it('refuses a solid axle on the front, naming the field', () => {
 		const bad = carModelSchema.safeParse({ ...model(), front: { ...model().front, solid: solidRear() } });
 		expect(bad.error!.issues[0].path.join('.')).toBe('front.solid');
+	});
+});
+
+describe('pitch sweep of the whole car', () => {
+	// Anti-dive with outboard brakes, the textbook's side-view construction (Milliken & Milliken, Race Car Vehicle
+	// Dynamics, ch. 17): 100 · front brake share · (wheelbase / h) · tan θ, tan θ the side-view instant centre's rise
+	// over its run from the contact patch. h and the wheelbase are the car's own, worked out here from the mass items.
+	const settings = { frontBrakeFraction: 0.6, driveLayout: 'rwd' as const };
+	const m = model();
+	const c = corners();
+	const r = pitchSweep(m, c, settings, { from: -2, to: 2, step: 0.5 });
+
+	it('each axle travels by its distance from the CG times tan(pitch): front in bump, rear in rebound, nose down', () => {
+		expect(r.error).toBeNull();
+		expect(r.samples.map((s) => s.pitch)).toEqual([-2, -1.5, -1, -0.5, 0, 0.5, 1, 1.5, 2]);
+		// the CG's x by moments of the mass items and the unsprung masses at the wheel centres (statics)
+		const front = solveSweep(c.front_left, { sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0].wheel_centre;
+		const rear = solveSweep(c.rear_left, { sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0].wheel_centre;
+		const items = m.mass_items.map((i) => [i.mass, i.x, i.z]);
+		items.push([2 * 14, front[0], front[2]], [2 * 16, rear[0], rear[2]]);
+		const mass = items.reduce((s, [w]) => s + w, 0);
+		const xcg = items.reduce((s, [w, x]) => s + w * x, 0) / mass;
+		// to 0.01 mm: the car places the wheels where its axle solver assembles them at design
+		expect(r.pivot_x).toBeCloseTo(xcg, 2);
+		const two = r.samples.find((s) => s.pitch === 2)!;
+		expect(two.front.travel).toBeCloseTo((front[0] - xcg) * Math.tan(2 * RAD), 2);
+		expect(two.rear.travel).toBeCloseTo((rear[0] - xcg) * Math.tan(2 * RAD), 2);
+		expect(two.front.travel).toBeGreaterThan(0);
+		expect(two.rear.travel).toBeLessThan(0);
+	});
+
+	it('anti-dive at every pitch is the textbook formula with the car’s CG height and wheelbase', () => {
+		const front = solveSweep(c.front_left, { sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0];
+		const rear = solveSweep(c.rear_left, { sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0];
+		const items = m.mass_items.map((i) => [i.mass, i.z]);
+		items.push([2 * 14, front.wheel_centre[2]], [2 * 16, rear.wheel_centre[2]]);
+		const h = items.reduce((s, [w, z]) => s + w * z, 0) / items.reduce((s, [w]) => s + w, 0);
+		const L = front.wheel_centre[0] - rear.wheel_centre[0];
+		let checked = 0;
+		for (const s of r.samples) {
+			// the front-left corner solved alone at this travel: its side-view instant centre and contact patch
+			const alone = solveSweep(c.front_left, { sweep: 'heave', from: s.front.travel, to: s.front.travel, step: 1 }).samples[0];
+			if (!alone.svic) continue;
+			const [sx, sz] = alone.svic;
+			const [cx, , cz] = alone.contact_patch;
+			expect(s.front.anti).toBeCloseTo((100 * 0.6 * (L / h) * (sz - cz)) / (cx - sx), 2);
+			checked++;
+		}
+		expect(checked).toBe(r.samples.length);
+	});
+
+	it('a pitch range without design is refused naming from', () => {
+		const q = pitchSweepQuery.safeParse({ from: '1', to: '3' });
+		expect(q.success).toBe(false);
+		expect(q.error!.issues[0].path).toEqual(['from']);
 	});
 });

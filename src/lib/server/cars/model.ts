@@ -9,7 +9,7 @@ import { recordAudit } from '$lib/server/db/queries/audit';
 import { appendCarRevision, cornerRevisionsOfCar, latestCornerRevisions } from '$lib/server/db/queries/car-revisions';
 import type { Car } from '$lib/server/db/schema';
 import { AxleSolver, barFigures, type AxleSweepOptions } from '$lib/server/kinematics/axle';
-import { axleInput, carFigures, CarModelError, vehicleOf, type AxleName, type CarCorners, type Position } from '$lib/server/kinematics/car';
+import { axleInput, carFigures, CarModelError, pitchSweep, vehicleOf, type AxleName, type CarCorners, type Position } from '$lib/server/kinematics/car';
 import { CornerGeometryError, SweepOptionsError } from '$lib/server/kinematics/index';
 import { solveSolidAxle, SolidSweepOptionsError } from '$lib/server/kinematics/solid-axle';
 
@@ -95,3 +95,14 @@ export function axleSweep(car: CarRow, model: CarModel, corners: CarCorners, axl
 	}
 }
 
+
+/** The car's pitch sweep (body about the CG's lateral axis) with both axles; failures named as 400s. */
+export function carPitchSweep(car: CarRow, model: CarModel, corners: CarCorners, grid: { from: number; to: number; step: number }) {
+	figuresOrInvalid(model, corners);
+	try {
+		return { format: 'car-pitch/1' as const, ...pitchSweep(model, corners, { frontBrakeFraction: car.frontBrakeFraction, driveLayout: car.driveLayout }, grid) };
+	} catch (e) {
+		if (e instanceof CarModelError) invalid(e.field, e.message.slice(e.field.length + 2));
+		throw e;
+	}
+}

@@ -241,3 +241,85 @@ export function vehicleOf(figures: Pick<CarFigures, 'wheelbase' | 'cg'>, axle: A
 	const drive = settings.driveLayout === 'fwd' ? 0 : settings.driveLayout === 'awd' ? 0.5 : 1;
 	return { axle, wheelbase: figures.wheelbase, cg_height: figures.cg[2], rear_drive_fraction: drive };
 }
+
+/** One axle at one body pitch: its wheel travel (mm, + bump) and the side-view figures of its left wheel. */
+export interface PitchAxle {
+	travel: number;
+	/** side-view instant centre [x, z] of the left wheel (the solid axle's), mm */
+	svic: [number, number] | null;
+	/** front: anti-dive (percent); rear: anti-squat (percent); null without the vehicle figures they need */
+	anti: number | null;
+	camber: number | null;
+	toe: number | null;
+}
+
+export interface PitchSample {
+	/** body pitch in degrees, + = nose down (braking) */
+	pitch: number;
+	front: PitchAxle;
+	rear: PitchAxle;
+}
+
+export interface PitchSweepResult {
+	/** x of the pitch axis (mm): through the centre of gravity */
+	pivot_x: number;
+	cg_height: number;
+	wheelbase: number;
+	samples: PitchSample[];
+	/** the first pitch at which an axle cannot be assembled, or null */
+	error: { axle: AxleName; pitch: number; message: string } | null;
+}
+
+/**
+ * A pitch sweep of the whole car: the body turns about a lateral axis through the centre of gravity (common
+ * practice for a kinematic pitch sweep; the tyres' and springs' share of the pitch centre is left out), so each
+ * axle's wheels travel by (x_axle − x_cg) · tan(pitch) against the body, front in bump and rear in rebound when the
+ * nose goes down. Anti-dive (front, braking) and anti-squat (rear, drive) follow the contract's definitions with
+ * the car's own wheelbase and CG height (Milliken & Milliken, Race Car Vehicle Dynamics, ch. 17).
+ */
+export function pitchSweep(model: CarModel, corners: CarCorners, settings: CarSettings, grid: { from: number; to: number; step: number }): PitchSweepResult {
+	const figures = carFigures(model, corners);
+	const [xcg, , zcg] = figures.cg;
+	const n = Math.floor((grid.to - grid.from) / grid.step + 1e-9) + 1;
+	const axleAt = {} as Record<AxleName, (travel: number) => PitchAxle | string>;
+	const xOf = {} as Record<AxleName, number>;
+	for (const a of ['front', 'rear'] as const) {
+		const vehicle = vehicleOf(figures, a, settings);
+		xOf[a] = figures.axles[a].x;
+		if (a === 'rear' && model.rear.solid) {
+			const solid = model.rear.solid;
+			const v = vehicle && { wheelbase: vehicle.wheelbase, cg_height: vehicle.cg_height, axle: 'rear' as const, rear_drive_fraction: vehicle.rear_drive_fraction };
+			axleAt[a] = (t) => {
+				const r = solveSolidAxle(solid, v, { sweep: 'heave', from: t, to: t, step: 1 });
+				const s = r.samples[0];
+				return s ? { travel: t, svic: s.svic, anti: s.anti_squat, camber: null, toe: null } : (r.error?.message ?? 'cannot be assembled');
+			};
+			continue;
+		}
+		const solver = solveAxle(axleInput(model, corners, a, vehicle), a);
+		axleAt[a] = (t) => {
+			const r = solver.sweep({ sweep: 'heave', from: t, to: t, step: 1 });
+			const s = r.samples[0]?.left;
+			if (!s) return r.error ? `${r.error.side} ${r.error.link} cannot be assembled` : 'cannot be assembled';
+			return { travel: t, svic: s.svic, anti: a === 'front' ? s.anti_dive : s.anti_squat, camber: s.camber, toe: s.toe };
+		};
+	}
+	const samples: PitchSample[] = [];
+	let error: PitchSweepResult['error'] = null;
+	for (let k = 0; k < n; k++) {
+		const pitch = Math.round((grid.from + k * grid.step) * 1e9) / 1e9;
+		const tan = Math.tan((pitch * Math.PI) / 180);
+		const out = {} as Record<AxleName, PitchAxle>;
+		for (const a of ['front', 'rear'] as const) {
+			const travel = Math.round((xOf[a] - xcg) * tan * 1e9) / 1e9;
+			const r = axleAt[a](travel);
+			if (typeof r === 'string') {
+				error ??= { axle: a, pitch, message: r };
+				break;
+			}
+			out[a] = r;
+		}
+		if (out.front && out.rear) samples.push({ pitch, front: out.front, rear: out.rear });
+	}
+	return { pivot_x: xcg, cg_height: zcg, wheelbase: figures.wheelbase, samples, error };
+}
