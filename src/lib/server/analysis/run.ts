@@ -37,14 +37,14 @@ function evaluatorOrFail(geometry: CornerGeometry, travel: { from: number; to: n
 function packagingOf(geometry: CornerGeometry, input: FixSearchRequest, axle: 'front' | 'rear') {
 	const steering = input.steering;
 	const volumes = input.keepOut.filter((v) => v.shape !== 'rim' || v.axle === axle);
-	if (!volumes.length && !steering?.ratio) return undefined;
-	const steers = kindSpec(geometry.kind).steers;
-	if (steering && !steers) error(400, { message: 'steering: this corner kind does not steer (leave the steering out)', code: 'invalid', field: 'steering' });
+	if (steering && !kindSpec(geometry.kind).steers) error(400, { message: 'steering: this corner kind does not steer (leave the steering out)', code: 'invalid', field: 'steering' });
+	if (!volumes.length && !steering) return undefined;
 	const lockRack = steering ? (steering.lock * steering.rackTravelPerTurn) / 360 : 0;
 	return {
 		spec: {
 			volumes,
-			racks: lockRack ? [-lockRack, lockRack] : [],
+			// the travel is checked at the lock only when there is something to keep out of
+			racks: lockRack && volumes.length ? [-lockRack, lockRack] : [],
 			moved: [...new Set(input.free.map((f) => f.point))],
 			ratio: steering ? { perTurn: steering.rackTravelPerTurn, lockRack } : null
 		},
