@@ -164,9 +164,10 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 		still = new Group();
 		if (d.rear) {
 			still.add(segments(d.rear.links, linkMaterial));
-			for (const [p, q] of d.rear.housing) {
+			// the axle tube first, then the link brackets on the housing, thinner
+			for (const [i, [p, q]] of d.rear.housing.entries()) {
 				const m = new Mesh(rod, housingMaterial);
-				placeRod(m, world(p), world(q), 35);
+				placeRod(m, world(p), world(q), i === 0 ? 28 : 12);
 				still.add(m);
 			}
 			for (const w of d.rear.wheels) still.add(wheelMesh(w.centre, w.axis_inner, w.radius));
