@@ -194,11 +194,11 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 			// a plumb line from the CG to the ground
 			still.add(segments([[cg, [cg[0], cg[1], 0]]], bodyMaterial));
 			const label = makeLabel('CG', palette.warn, sprites);
-			label.position.copy(world([cg[0], cg[1] - 60, cg[2] + 60]));
+			label.position.copy(world([cg[0], cg[1] - 120, cg[2] + 140]));
 			still.add(label);
 			// which way is forward
 			const nose = Math.max(...plan.map((p) => p[0]));
-			const ahead = makeLabel('front ▸', palette.muted, sprites);
+			const ahead = makeLabel('front', palette.muted, sprites);
 			ahead.position.copy(world([nose + 150, 0, top]));
 			still.add(ahead);
 		}
@@ -250,7 +250,7 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 		const mid = world([(fx + rx) / 2, 0, f.left.wheel_centre[2]]);
 		controls.target.copy(mid);
 		camera.position.copy(mid.clone().add(VIEW));
-		half = d.rear ? Math.max(track, Math.abs(fx - rx)) * 0.36 : track * 0.42;
+		half = d.rear ? Math.max(track, Math.abs(fx - rx)) * 0.4 : track * 0.42;
 		frameCamera();
 		controls.update();
 	}
