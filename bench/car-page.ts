@@ -10,7 +10,8 @@ const RUNS = 7;
 export async function run() {
 	ensureBuild();
 	prepareDatabase({ test: true });
-	const port = 3710;
+	// beside the test port, so parallel checkouts (each with its own LW_TEST_PORT) do not collide
+	const port = Number(process.env.LW_TEST_PORT ?? 3700) + 10;
 	const base = `http://127.0.0.1:${port}`;
 	const server = startTestServer(port);
 	const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking'] });

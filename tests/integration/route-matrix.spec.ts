@@ -73,6 +73,7 @@ const TABLE: Record<string, string> = {
 	'GET /api/v1/car-revisions/[carRevisionId=id]': TEAM_VIEW,
 	'GET /api/v1/car-revisions/[carRevisionId=id]/axles/[axle=axle]': TEAM_VIEW,
 	'GET /api/v1/car-revisions/[carRevisionId=id]/pitch': TEAM_VIEW,
+	'GET /api/v1/car-revisions/[carRevisionId=id]/changes': TEAM_VIEW,
 	'PUT /api/v1/corners/[cornerId=id]/baseline': TEAM_EDIT,
 	'POST /api/v1/corners/[cornerId=id]/import': TEAM_EDIT,
 	'GET /api/v1/corners/[cornerId=id]/revisions': TEAM_VIEW,

@@ -1,6 +1,9 @@
-// The axle in 3-D: both corners' links (the kind's diagram lines), both wheels as discs and a body outline,
-// at one solved position of a steer sweep. Vehicle axes (x forward, y left, z up, mm) map to three's world as
-// (y, z, x), as in linkage-scene.ts. Renders only on change.
+// The car in 3-D: the front axle's corners (the kind's diagram lines) and wheels at one solved position of a steer
+// sweep, and, when given, the rear axle at design (its corners' links, or a solid axle's housing, links and lateral
+// locator) and the body (a hull outline, the sprung mass items, the CG). Without a rear axle and body it draws the
+// steered axle alone with a box through its chassis points. Vehicle axes (x forward, y left, z up, mm) map to
+// three's world as (y, z, x), as in linkage-scene.ts. Every position comes from the server's solve; this file only
+// draws. Renders only on change.
 import {
 	BufferGeometry,
 	CylinderGeometry,
@@ -18,10 +21,15 @@ import {
 	WebGLRenderer,
 	AmbientLight,
 	DirectionalLight,
-	DoubleSide
+	DoubleSide,
+	SphereGeometry,
+	Sprite,
+	type Object3D
 } from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
-import { readPalette, toWorld } from './linkage/basics';
+import { placeRod, readPalette, toWorld } from './linkage/basics';
+import { makeLabel, sizeLabels } from './linkage/labels';
+import type { SceneAxle, SceneBody } from './linkage/types';
 
 export type Vec3 = [number, number, number];
 
@@ -37,6 +45,10 @@ export interface AxleSceneData {
 	/** each side's lines as pairs of point names (the kind's diagram) */
 	lines: { left: readonly (readonly [string, string])[]; right: readonly (readonly [string, string])[] };
 	loadedRadius: { left: number; right: number };
+	/** the rear axle at design, drawn still */
+	rear?: SceneAxle | null;
+	/** the body outline, mass items and CG */
+	body?: SceneBody | null;
 }
 
 export interface AxleScene {
@@ -47,6 +59,18 @@ export interface AxleScene {
 }
 
 const world = (p: Vec3, out = new Vector3()) => toWorld(p, out);
+
+/** Free what a group made for itself: its own line geometries, its labels' textures (shared meshes and materials stay). */
+function free(root: Object3D, shared: Set<BufferGeometry>, sprites: Set<Sprite>) {
+	root.traverse((o) => {
+		if (o instanceof LineSegments && !shared.has(o.geometry)) o.geometry.dispose();
+		if (o instanceof Sprite) {
+			o.material.map?.dispose();
+			o.material.dispose();
+			sprites.delete(o);
+		}
+	});
+}
 
 export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 	const renderer = new WebGLRenderer({ canvas, antialias: true, preserveDrawingBuffer: true });
@@ -61,16 +85,25 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 	scene.add(sun);
 	const camera = new OrthographicCamera(-1, 1, 1, -1, -100000, 100000);
 	// a three-quarter view from ahead, above and to the left
-	camera.position.set(1400, 1100, 2200);
+	const VIEW = new Vector3(1400, 1100, 2200).normalize().multiplyScalar(4000);
+	camera.position.copy(VIEW);
 	const controls = new OrbitControls(camera, canvas);
 	controls.enableDamping = false;
 	let data: AxleSceneData | null = null;
 	let group = new Group();
-	scene.add(group);
+	let still = new Group();
+	scene.add(group, still);
 	const linkMaterial = new LineBasicMaterial({ color: palette.accent });
 	const bodyMaterial = new LineBasicMaterial({ color: palette.muted });
 	const tyreMaterial = new MeshStandardMaterial({ color: palette.ink, transparent: true, opacity: 0.3, roughness: 0.9, side: DoubleSide, depthWrite: false });
+	const housingMaterial = new MeshStandardMaterial({ color: palette.accent, roughness: 0.6 });
+	const itemMaterial = new MeshStandardMaterial({ color: palette.muted, roughness: 0.8 });
+	const cgMaterial = new MeshStandardMaterial({ color: palette.warn, roughness: 0.5 });
 	const disc = new CylinderGeometry(1, 1, 1, 40, 1, true);
+	const rod = new CylinderGeometry(1, 1, 1, 12);
+	const ball = new SphereGeometry(1, 16, 12);
+	const shared = new Set<BufferGeometry>([disc, rod, ball]);
+	const sprites = new Set<Sprite>();
 	let width = 1;
 	let height = 1;
 	let half = 900;
@@ -80,6 +113,7 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 		if (pending) return;
 		pending = requestAnimationFrame(() => {
 			pending = 0;
+			sizeLabels(sprites, (camera.top - camera.bottom) / camera.zoom / Math.max(1, height));
 			renderer.render(scene, camera);
 		});
 	}
@@ -108,15 +142,67 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 		return new LineSegments(g, material);
 	}
 
-	function wheel(side: SideFrame, radius: number) {
-		const axisInner = side.points['wheel.axis_inner'];
-		const c = world(side.wheel_centre);
+	/** A tyre about 180 mm wide on the wheel's spin axis (centre → inboard point). */
+	function wheelMesh(centre: Vec3, axisInner: Vec3 | undefined, radius: number) {
+		const c = world(centre);
 		const mesh = new Mesh(disc, tyreMaterial);
-		mesh.scale.set(radius, 180, radius); // a tyre about 180 mm wide
+		mesh.scale.set(radius, 180, radius);
 		const axis = axisInner ? c.clone().sub(world(axisInner)).normalize() : new Vector3(1, 0, 0);
 		mesh.quaternion.copy(new Quaternion().setFromUnitVectors(new Vector3(0, 1, 0), axis));
 		mesh.position.copy(c);
 		return mesh;
+	}
+
+	function wheel(side: SideFrame, radius: number) {
+		return wheelMesh(side.wheel_centre, side.points['wheel.axis_inner'], radius);
+	}
+
+	/** The rear axle, the body outline, the mass items and the CG: drawn once per data. */
+	function buildStill(d: AxleSceneData) {
+		scene.remove(still);
+		free(still, shared, sprites);
+		still = new Group();
+		if (d.rear) {
+			still.add(segments(d.rear.links, linkMaterial));
+			// the axle tube first, then the link brackets on the housing, thinner
+			for (const [i, [p, q]] of d.rear.housing.entries()) {
+				const m = new Mesh(rod, housingMaterial);
+				placeRod(m, world(p), world(q), i === 0 ? 28 : 12);
+				still.add(m);
+			}
+			for (const w of d.rear.wheels) still.add(wheelMesh(w.centre, w.axis_inner, w.radius));
+		}
+		if (d.body) {
+			const { plan, floor, top, cg, items } = d.body;
+			const edges: [Vec3, Vec3][] = [];
+			plan.forEach(([x, y], i) => {
+				const [nx, ny] = plan[(i + 1) % plan.length];
+				edges.push([[x, y, floor], [nx, ny, floor]], [[x, y, top], [nx, ny, top]], [[x, y, floor], [x, y, top]]);
+			});
+			still.add(segments(edges, bodyMaterial));
+			const heaviest = Math.max(...items.map((i) => i.mass), 1);
+			for (const item of items) {
+				const m = new Mesh(ball, itemMaterial);
+				m.scale.setScalar(25 + 45 * Math.cbrt(item.mass / heaviest));
+				m.position.copy(world(item.at));
+				still.add(m);
+			}
+			const c = new Mesh(ball, cgMaterial);
+			c.scale.setScalar(40);
+			c.position.copy(world(cg));
+			still.add(c);
+			// a plumb line from the CG to the ground
+			still.add(segments([[cg, [cg[0], cg[1], 0]]], bodyMaterial));
+			const label = makeLabel('CG', palette.warn, sprites);
+			label.position.copy(world([cg[0], cg[1] - 120, cg[2] + 140]));
+			still.add(label);
+			// which way is forward
+			const nose = Math.max(...plan.map((p) => p[0]));
+			const ahead = makeLabel('front', palette.muted, sprites);
+			ahead.position.copy(world([nose + 150, 0, top]));
+			still.add(ahead);
+		}
+		scene.add(still);
 	}
 
 	function build(index: number) {
@@ -124,9 +210,7 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 		const f = data.frames[Math.max(0, Math.min(index, data.frames.length - 1))];
 		if (!f) return;
 		scene.remove(group);
-		group.traverse((o) => {
-			if (o instanceof LineSegments) o.geometry.dispose();
-		});
+		free(group, shared, sprites);
 		group = new Group();
 		for (const side of ['left', 'right'] as const) {
 			const pts = f[side].points;
@@ -134,11 +218,13 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 			group.add(segments(pairs, linkMaterial));
 			group.add(wheel(f[side], data.loadedRadius[side]));
 		}
-		// the body outline: a box through the chassis-side points of both corners (inner pivots, rack ends)
-		const inner = Object.entries(f.left.points)
-			.concat(Object.entries(f.right.points))
-			.filter(([n]) => /front|rear|inner|chassis|pivot/.test(n) && !/outer/.test(n))
-			.map(([, p]) => p);
+		// the steered axle alone: a box through the chassis-side points of both corners (inner pivots, rack ends)
+		const inner = data.body
+			? []
+			: Object.entries(f.left.points)
+					.concat(Object.entries(f.right.points))
+					.filter(([n]) => /front|rear|inner|chassis|pivot/.test(n) && !/outer/.test(n))
+					.map(([, p]) => p);
 		if (inner.length) {
 			const lo = [0, 1, 2].map((i) => Math.min(...inner.map((p) => p[i])));
 			const hi = [0, 1, 2].map((i) => Math.max(...inner.map((p) => p[i])));
@@ -154,18 +240,26 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 		render();
 	}
 
+	/** Aim at the middle of what is drawn: the front axle alone, or the whole car. */
+	function aim(d: AxleSceneData) {
+		const f = d.frames[Math.floor(d.frames.length / 2)];
+		if (!f) return;
+		const fx = (f.left.wheel_centre[0] + f.right.wheel_centre[0]) / 2;
+		const track = Math.abs(f.left.wheel_centre[1] - f.right.wheel_centre[1]);
+		const rx = d.rear ? (d.rear.wheels[0].centre[0] + d.rear.wheels[1].centre[0]) / 2 : fx;
+		const mid = world([(fx + rx) / 2, 0, f.left.wheel_centre[2]]);
+		controls.target.copy(mid);
+		camera.position.copy(mid.clone().add(VIEW));
+		half = d.rear ? Math.max(track, Math.abs(fx - rx)) * 0.4 : track * 0.42;
+		frameCamera();
+		controls.update();
+	}
+
 	return {
 		setData(d) {
 			data = d;
-			const f = d.frames[Math.floor(d.frames.length / 2)];
-			if (f) {
-				const mid = world([(f.left.wheel_centre[0] + f.right.wheel_centre[0]) / 2, 0, f.left.wheel_centre[2]]);
-				controls.target.copy(mid);
-				camera.position.copy(mid.clone().add(new Vector3(1400, 1100, 2200)));
-				half = Math.abs(f.left.wheel_centre[1] - f.right.wheel_centre[1]) * 0.42;
-				frameCamera();
-				controls.update();
-			}
+			aim(d);
+			buildStill(d);
 			build(Math.floor(d.frames.length / 2));
 		},
 		setPose(index) {
@@ -181,7 +275,10 @@ export function createAxleScene(canvas: HTMLCanvasElement): AxleScene {
 		dispose() {
 			cancelAnimationFrame(pending);
 			controls.dispose();
-			disc.dispose();
+			free(group, shared, sprites);
+			free(still, shared, sprites);
+			for (const g of shared) g.dispose();
+			for (const m of [linkMaterial, bodyMaterial, tyreMaterial, housingMaterial, itemMaterial, cgMaterial]) m.dispose();
 			renderer.dispose();
 		}
 	};

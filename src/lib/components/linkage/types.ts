@@ -43,3 +43,32 @@ export interface LinkageScene {
 	resize(width: number, height: number): void;
 	dispose(): void;
 }
+
+/** A wheel as the car's 3-D view draws it: centre, a point inboard on its spin axis, loaded radius (mm). */
+export interface SceneWheel {
+	centre: Vec3;
+	axis_inner: Vec3;
+	radius: number;
+}
+
+/** An axle at one solved pose for the car's 3-D view: lines between its points, and its wheels (left, right). */
+export interface SceneAxle {
+	/** 'corners' (independent) or 'solid' */
+	type: 'corners' | 'solid';
+	/** in the trade's words, e.g. "double wishbone, both sides" or "solid axle, four links and a Panhard rod" */
+	label: string;
+	links: [Vec3, Vec3][];
+	/** a solid axle's housing (drawn heavier); empty for independent corners */
+	housing: [Vec3, Vec3][];
+	wheels: [SceneWheel, SceneWheel];
+}
+
+/** The body as the car's 3-D view outlines it: a tub in plan view between two heights, the CG and the sprung items. */
+export interface SceneBody {
+	/** plan outline [x, y] (mm), closed */
+	plan: [number, number][];
+	floor: number;
+	top: number;
+	cg: Vec3;
+	items: { name: string; mass: number; at: Vec3 }[];
+}

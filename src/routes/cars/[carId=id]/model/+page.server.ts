@@ -2,13 +2,16 @@ import { fail, redirect } from '@sveltejs/kit';
 import { carRevisionInput, starterModel, type CarModel } from '$lib/schemas/car-model';
 import { db } from '$lib/server/db';
 import { carRevisionOfCar, carRevisionsOfCar, latestCornerRevisions } from '$lib/server/db/queries/car-revisions';
-import { axleSweep, figuresOrInvalid, loadCarRevision, saveCarRevision } from '$lib/server/cars/model';
+import { figuresOrInvalid, loadCarRevision, saveCarRevision } from '$lib/server/cars/model';
 import { can, requireCar } from '$lib/server/permissions';
 import { isHttpError } from '@sveltejs/kit';
-import type { AxleSample } from '$lib/server/kinematics/axle';
+import { changesBetween, type CarChange } from '$lib/server/cars/compare';
+import { carScene, rollPaths, steerFrames, type SteerSample } from '$lib/server/cars/scene';
 import type { Actions, PageServerLoad } from './$types';
 
 type Figures = ReturnType<typeof figuresOrInvalid>;
+/** The charts' data of a revision: the steered axle through the steering range, both axles' roll-centre paths. */
+type Axles = { steer: { error: unknown; kinds: string[]; samples: SteerSample[] } | null; roll: ReturnType<typeof rollPaths> };
 
 /** Figures, or the message naming what stops them. */
 function tryFigures<T>(f: () => T): { ok: true; value: T } | { ok: false; message: string } {
@@ -26,41 +29,21 @@ export const load: PageServerLoad = async (event) => {
 	const [list, row, latestCorners] = await Promise.all([carRevisionsOfCar(db, car.id), carRevisionOfCar(db, car.id, rev && /^[0-9a-f-]{36}$/i.test(rev) ? rev : null), latestCornerRevisions(db, car.id)]);
 	const positions = Object.keys(latestCorners);
 	if (!row) {
-		return { car, canEdit: can(role, 'edit'), revisions: list, current: null, model: starterModel(car.wheelbaseMm ?? 2600, car.cgHeightMm ?? 400), positions, figures: null, compare: null, axles: null };
+		return { car, canEdit: can(role, 'edit'), revisions: list, current: null, model: starterModel(car.wheelbaseMm ?? 2600, car.cgHeightMm ?? 400), positions, figures: null, compare: null, axles: null, scene: null, sceneError: null };
 	}
 	const vsId = event.url.searchParams.get('vs') ?? row.parentId;
 	const [loaded, vsRow] = await Promise.all([loadCarRevision(row), vsId && /^[0-9a-f-]{36}$/i.test(vsId) ? carRevisionOfCar(db, car.id, vsId) : Promise.resolve(null)]);
 	const figures = tryFigures(() => figuresOrInvalid(loaded.model, loaded.corners));
-	let compare: { number: number; label: string; id: string; figures: Figures | null } | null = null;
+	let compare: { number: number; label: string; id: string; figures: Figures | null; axles: Axles | null; changes: CarChange[] } | null = null;
 	if (vsRow && vsRow.id !== row.id) {
 		const other = await loadCarRevision(vsRow);
 		const f = tryFigures(() => figuresOrInvalid(other.model, other.corners));
-		compare = { number: vsRow.number, label: vsRow.label, id: vsRow.id, figures: f.ok ? f.value : null };
+		const axles = f.ok ? tryFigures(() => ({ steer: steerFrames(car, other.model, other.corners, false), roll: rollPaths(car, other.model, other.corners) })) : null;
+		compare = { number: vsRow.number, label: vsRow.label, id: vsRow.id, figures: f.ok ? f.value : null, axles: axles?.ok ? axles.value : null, changes: await changesBetween(vsRow, row) };
 	}
-	const axles = figures.ok
-		? (() => {
-				const front = loaded.model.front.steering ? axleSweep(car, loaded.model, loaded.corners, 'front', { sweep: 'steer', from: -180, to: 180, step: 10, points: true }) : null;
-				const roll = (a: 'front' | 'rear') => axleSweep(car, loaded.model, loaded.corners, a, { sweep: 'roll', from: -3, to: 3, step: 0.25 });
-				const trim = (r: ReturnType<typeof roll>) => r.samples.map((s) => ({ roll: s.roll!, rc: s.rc }));
-				return {
-					steer: front && {
-						error: front.error,
-						samples: (front.samples as AxleSample[]).map((s) => ({
-							steering_wheel: s.steering_wheel!,
-							delta_left: s.delta_left,
-							delta_right: s.delta_right,
-							ackermann: s.ackermann,
-							steering_ratio: s.steering_ratio,
-							turning_circle: s.turning_circle,
-							left: { points: s.left.points!, wheel_centre: s.left.wheel_centre, contact_patch: s.left.contact_patch },
-							right: { points: s.right.points!, wheel_centre: s.right.wheel_centre, contact_patch: s.right.contact_patch }
-						})),
-						kinds: front.kinds
-					},
-					roll: { front: trim(roll('front')), rear: trim(roll('rear')) }
-				};
-			})()
-		: null;
+	const steer = figures.ok ? steerFrames(car, loaded.model, loaded.corners, true) : null;
+	const axles: Axles | null = figures.ok ? { steer: steer && { ...steer, samples: steer.samples.map(({ left: _l, right: _r, ...s }) => s) }, roll: rollPaths(car, loaded.model, loaded.corners) } : null;
+	const scene = figures.ok ? tryFigures(() => carScene(car, loaded.model, loaded.corners, figures.value, steer)) : null;
 	return {
 		car,
 		canEdit: can(role, 'edit'),
@@ -71,7 +54,9 @@ export const load: PageServerLoad = async (event) => {
 		figures: figures.ok ? figures.value : null,
 		figuresError: figures.ok ? null : figures.message,
 		compare,
-		axles
+		axles,
+		scene: scene?.ok ? scene.value : null,
+		sceneError: scene && !scene.ok ? scene.message : null
 	};
 };
 
