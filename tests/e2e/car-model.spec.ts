@@ -34,6 +34,10 @@ test('moving the engine 100 mm rearward shows the new front weight beside the ol
 	expect(frontAfter).toBeCloseTo(frontBefore - (100 * engineMass * 100) / (mass * wheelbase), 1);
 	await expect(row('Front weight').getByTestId('delta')).toHaveText(/^−0\.\d\d$/);
 	await expect(page.getByTestId('load-transfer')).toContainText('Front');
+	// the whole car pitched about its CG: both axles' anti figures drawn
+	const pitch = page.getByTestId('chart-anti-dive-and-anti-squat-through-pitch');
+	await expect(pitch.locator('path[data-series="anti-dive"]')).toHaveCount(1);
+	await expect(pitch.locator('path[data-series="anti-squat"]')).toHaveCount(1);
 });
 
 test('turning the steering wheel in the 3-D view turns both road wheels, the inner one more', async ({ page }) => {

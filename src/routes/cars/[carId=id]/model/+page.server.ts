@@ -2,7 +2,7 @@ import { fail, redirect } from '@sveltejs/kit';
 import { carRevisionInput, starterModel, type CarModel } from '$lib/schemas/car-model';
 import { db } from '$lib/server/db';
 import { carRevisionOfCar, carRevisionsOfCar, latestCornerRevisions } from '$lib/server/db/queries/car-revisions';
-import { figuresOrInvalid, loadCarRevision, saveCarRevision } from '$lib/server/cars/model';
+import { carPitchSweep, figuresOrInvalid, loadCarRevision, saveCarRevision } from '$lib/server/cars/model';
 import { can, requireCar } from '$lib/server/permissions';
 import { isHttpError } from '@sveltejs/kit';
 import { changesBetween, type CarChange } from '$lib/server/cars/compare';
@@ -29,7 +29,7 @@ export const load: PageServerLoad = async (event) => {
 	const [list, row, latestCorners] = await Promise.all([carRevisionsOfCar(db, car.id), carRevisionOfCar(db, car.id, rev && /^[0-9a-f-]{36}$/i.test(rev) ? rev : null), latestCornerRevisions(db, car.id)]);
 	const positions = Object.keys(latestCorners);
 	if (!row) {
-		return { car, canEdit: can(role, 'edit'), revisions: list, current: null, model: starterModel(car.wheelbaseMm ?? 2600, car.cgHeightMm ?? 400), positions, figures: null, compare: null, axles: null, scene: null, sceneError: null };
+		return { car, canEdit: can(role, 'edit'), revisions: list, current: null, model: starterModel(car.wheelbaseMm ?? 2600, car.cgHeightMm ?? 400), positions, figures: null, compare: null, axles: null, scene: null, sceneError: null, pitch: null };
 	}
 	const vsId = event.url.searchParams.get('vs') ?? row.parentId;
 	const [loaded, vsRow] = await Promise.all([loadCarRevision(row), vsId && /^[0-9a-f-]{36}$/i.test(vsId) ? carRevisionOfCar(db, car.id, vsId) : Promise.resolve(null)]);
@@ -44,6 +44,9 @@ export const load: PageServerLoad = async (event) => {
 	const steer = figures.ok ? steerFrames(car, loaded.model, loaded.corners, true) : null;
 	const axles: Axles | null = figures.ok ? { steer: steer && { ...steer, samples: steer.samples.map(({ left: _l, right: _r, ...s }) => s) }, roll: rollPaths(car, loaded.model, loaded.corners) } : null;
 	const scene = figures.ok ? tryFigures(() => carScene(car, loaded.model, loaded.corners, figures.value, steer)) : null;
+	// the whole car pitched about its CG: anti-dive and anti-squat through ±2° (+ = nose down)
+	const pitchRun = figures.ok ? tryFigures(() => carPitchSweep(car, loaded.model, loaded.corners, { from: -2, to: 2, step: 0.25 })) : null;
+	const pitch = pitchRun?.ok ? pitchRun.value.samples.map((x) => ({ pitch: x.pitch, front: x.front.anti, rear: x.rear.anti, frontTravel: x.front.travel, rearTravel: x.rear.travel })) : null;
 	return {
 		car,
 		canEdit: can(role, 'edit'),
@@ -56,6 +59,7 @@ export const load: PageServerLoad = async (event) => {
 		compare,
 		axles,
 		scene: scene?.ok ? scene.value : null,
+		pitch,
 		sceneError: scene && !scene.ok ? scene.message : null
 	};
 };
