@@ -23,6 +23,8 @@ test('a smaller rim barrel on the car model: the fix search reports that the rim
 	await page.getByRole('button', { name: /Save as revision c\d+/ }).click();
 	await expect(page.getByRole('heading', { name: /Revision c\d+ · 13-inch rim, smaller barrel/ })).toBeVisible();
 	await expect(page.getByLabel('Front rim barrel barrel inner radius (mm)')).toHaveValue('130');
+	// the revision's changes list names the volume and the field that changed
+	await expect(page.getByTestId('car-changes')).toContainText('Keep-out “Front rim barrel” barrel radius');
 
 	await page.goto(`/corners/${FRONT_LEFT}/fix`);
 	await expect(page.getByRole('heading', { name: 'Fix search' })).toBeVisible();

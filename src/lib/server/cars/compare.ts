@@ -1,8 +1,10 @@
 // What changed between two car revisions, as a plain list: mass items added, removed, moved or re-weighed (matched
 // by name, case-insensitive), the corner revisions each pins, and every axle setting (springs, tyres, unsprung
-// mass, right side, rack, anti-roll bar, a solid axle's type and points). carChanges is pure; changesBetween reads
+// mass, right side, rack, anti-roll bar, a solid axle's type and points), and the keep-out volumes (matched by
+// name). carChanges is pure; changesBetween reads
 // the pinned corner revisions' numbers.
 // Frame: ISO 8855 vehicle axes, x forward, y left, z up; mm, kg, N/mm, N·m/°.
+import { describeKeepOut, type KeepOut } from '$lib/schemas/keep-out';
 import { carModelSchema, type CarModel } from '$lib/schemas/car-model';
 import { db } from '$lib/server/db';
 import { cornerRevisionsOfCar } from '$lib/server/db/queries/car-revisions';
@@ -97,6 +99,35 @@ export function carChanges(was: ComparedRevision, now: ComparedRevision): CarCha
 		if (x !== y) out.push({ what: 'corner', position, was: x, now: y });
 	}
 	out.push(...axleChanges('front', was.model.front, now.model.front), ...axleChanges('rear', was.model.rear, now.model.rear));
+	out.push(...keepOutChanges(was.model.keep_out ?? [], now.model.keep_out ?? []));
+	return out;
+}
+
+/** Keep-out volumes matched by name: added, removed, or each field that changed. */
+function keepOutChanges(was: KeepOut[], now: KeepOut[]): CarChange[] {
+	const key = (n: string) => n.trim().toLowerCase();
+	const before = new Map(was.map((v) => [key(v.name), v]));
+	const after = new Map(now.map((v) => [key(v.name), v]));
+	const out: CarChange[] = [];
+	const setting = (v: KeepOut, path: string, x: string, y: string, delta: number | null, unit: string): CarChange => ({ what: 'setting', field: `keep_out.${v.name}${path ? `.${path}` : ''}`, label: `Keep-out “${v.name}”${path ? ` ${path.replace(/_/g, ' ')}` : ''}`, was: x, now: y, delta, unit });
+	for (const [k, v] of after) {
+		const o = before.get(k);
+		if (!o) {
+			out.push(setting(v, '', '—', describeKeepOut(v), null, ''));
+			continue;
+		}
+		const a = leaves(o);
+		const b = leaves(v);
+		for (const path of new Set([...a.keys(), ...b.keys()])) {
+			if (path === 'name') continue;
+			const x = a.get(path) ?? null;
+			const y = b.get(path) ?? null;
+			if (JSON.stringify(x) === JSON.stringify(y)) continue;
+			const delta = typeof x === 'number' && typeof y === 'number' ? y - x : isVec(x) && isVec(y) ? Math.hypot(y[0] - x[0], y[1] - x[1], y[2] - x[2]) : null;
+			out.push(setting(v, path, show(x), show(y), delta, typeof x === 'number' || isVec(x) ? 'mm' : ''));
+		}
+	}
+	for (const [k, o] of before) if (!after.has(k)) out.push(setting(o, '', describeKeepOut(o), '—', null, ''));
 	return out;
 }
 
