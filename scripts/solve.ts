@@ -9,8 +9,10 @@ import { CornerGeometryError, solveSweep, SweepOptionsError, type SweepKind, typ
 import { AXLE_SWEEP_DEFAULTS, parseAxleFile } from '../src/lib/schemas/axle';
 import { SolidAxleGeometryError, SolidSweepOptionsError, solveSolidAxle } from '../src/lib/server/kinematics/solid-axle';
 import { AxleSolver, barFigures } from '../src/lib/server/kinematics/axle';
+import { parseCarFile } from '../src/lib/schemas/car-model';
+import { carFigures, CarModelError, pitchSweep } from '../src/lib/server/kinematics/car';
 
-const HELP = `Usage: npm run -s solve -- FILE [--sweep heave|roll|steer] [--from A --to B --step S] [--rack R] [--points]
+const HELP = `Usage: npm run -s solve -- FILE [--sweep heave|roll|steer|pitch] [--from A --to B --step S] [--rack R] [--points]
 
 Solves one suspension corner (a corner-geometry/1 JSON file) through a sweep and prints
 corner-solve/1 JSON on stdout: one sample per position with camber, toe, caster, kpi,
@@ -35,6 +37,13 @@ delta_left, delta_right, ackermann, steering_ratio and turning_circle.
                                                                 default --from -360 --to 360 --step 30
   --steering-wheel A  hold the steering wheel at A degrees during a heave or roll sweep
 
+A car file (car-model/1 with "corners": { "front_left": corner file, ... }, optional
+"front_brake_fraction" and "drive": "fwd" | "rwd" | "awd") prints car-figures/1: mass, CG,
+corner weights, wheel rates, ride frequencies, roll stiffness, roll gradient, load transfer.
+  --sweep pitch   body pitch in degrees about the CG, + = nose down: each axle's travel,
+                  side-view instant centre, anti-dive (front) and anti-squat (rear)
+                                                                default --from -3 --to 3 --step 0.25
+
 Exit status, for batch studies and CI jobs:
   0  solved over the whole range
   1  bad input: unreadable file, bad JSON, or a field that fails validation
@@ -46,6 +55,7 @@ Examples:
   npm run -s solve -- fixtures/club-fwd-front-left.json
   npm run -s solve -- my-corner.json --sweep roll --from -2 --to 2 --step 0.25
   npm run -s solve -- my-corner.json --from -80 --to 80 --step 1 > heave.json || echo "exit $?"
+  npm run -s solve -- fixtures/invented-car.json --sweep pitch --from -2 --to 2 --step 0.5
 `;
 
 /** Print one line on stderr and exit with `code`. */
@@ -56,7 +66,9 @@ function fail(code: number, line: string): never {
 
 interface Args {
 	file: string;
-	sweep: SweepKind;
+	sweep: SweepKind | 'pitch';
+	/** whether --sweep was given (a car file prints its figures without it) */
+	sweepGiven: boolean;
 	from?: number;
 	to?: number;
 	step?: number;
@@ -69,7 +81,8 @@ interface Args {
 function parseArgs(argv: string[]): Args {
 	const files: string[] = [];
 	const nums: Record<string, number> = {};
-	let sweep: SweepKind = 'heave';
+	let sweep: SweepKind | 'pitch' = 'heave';
+	let sweepGiven = false;
 	let points = false;
 	for (let i = 0; i < argv.length; i++) {
 		const [flag, inline] = argv[i].startsWith('--') ? argv[i].split(/=(.*)/s, 2) : [argv[i], undefined];
@@ -88,8 +101,9 @@ function parseArgs(argv: string[]): Args {
 		const value = inline ?? argv[++i];
 		if (value === undefined) fail(1, `${flag}: missing value`);
 		if (flag === '--sweep') {
-			if (value !== 'heave' && value !== 'roll' && value !== 'steer') fail(1, `--sweep: must be heave, roll or steer`);
+			if (value !== 'heave' && value !== 'roll' && value !== 'steer' && value !== 'pitch') fail(1, `--sweep: must be heave, roll, steer or pitch (pitch: a car file only)`);
 			sweep = value;
+			sweepGiven = true;
 		} else if (['--from', '--to', '--step', '--rack', '--steering-wheel'].includes(flag)) {
 			const n = value.trim() === '' ? NaN : Number(value);
 			if (!Number.isFinite(n)) fail(1, `${flag}: must be a finite number, got '${value}'`);
@@ -97,7 +111,7 @@ function parseArgs(argv: string[]): Args {
 		} else fail(1, `${flag}: unknown option (see --help)`);
 	}
 	if (files.length !== 1) fail(1, files.length ? 'FILE: give exactly one corner file' : 'FILE: missing (see --help)');
-	return { file: files[0], sweep, points, ...nums };
+	return { file: files[0], sweep, sweepGiven, points, ...nums };
 }
 
 /** Read a JSON file; exits 1 when it cannot be read or parsed. */
@@ -117,8 +131,38 @@ function readJson(file: string): unknown {
 	return json;
 }
 
+/**
+ * A car file (car-model/1 with its corners inside): prints car-figures/1 (mass, CG, corner weights, rates, roll
+ * stiffness, load transfer), or with --sweep pitch car-pitch/1 (degrees of body pitch, + = nose down).
+ */
+function mainCar(args: Args, json: unknown): void {
+	if (args.sweepGiven && args.sweep !== 'pitch') fail(1, '--sweep: a car file takes --sweep pitch (or none for its figures)');
+	if (args.rack !== undefined || args['steering-wheel'] !== undefined) fail(1, `--${args.rack !== undefined ? 'rack' : 'steering-wheel'}: not for a car file`);
+	const parsed = parseCarFile(json);
+	if (!parsed.ok) fail(1, parsed.message);
+	const { model, corners, settings } = parsed.car;
+	try {
+		if (args.sweep === 'pitch') {
+			const from = args.from ?? -3;
+			const to = args.to ?? 3;
+			const step = args.step ?? 0.25;
+			if (!(step > 0)) fail(1, '--step: must be > 0');
+			if (!(from <= 0 && to >= 0)) fail(1, '--from: the pitch range must include 0 (design)');
+			const r = pitchSweep(model, corners, settings, { from, to, step });
+			process.stdout.write(JSON.stringify({ format: 'car-pitch/1', ...r }, tidy) + '\n');
+			if (r.error) fail(2, `${r.error.axle}: ${r.error.message} at pitch ${r.error.pitch} deg`);
+			return;
+		}
+		process.stdout.write(JSON.stringify({ format: 'car-figures/1', ...carFigures(model, corners) }, tidy) + '\n');
+	} catch (e) {
+		if (e instanceof CarModelError) fail(1, e.message);
+		throw e;
+	}
+}
+
 /** Solve an axle file (axle-geometry/1) and print axle-solve/1. */
 function mainAxle(args: Args, json: unknown): void {
+	if (args.sweep === 'pitch') fail(1, '--sweep: pitch is for a car file (car-model/1)');
 	if (args.rack !== undefined) fail(1, '--rack: an axle file is steered by --steering-wheel (degrees)');
 	if (args['steering-wheel'] !== undefined && args.sweep === 'steer') fail(1, '--steering-wheel: only with --sweep heave or roll');
 	const parsed = parseAxleFile(json);
@@ -150,7 +194,7 @@ function mainAxle(args: Args, json: unknown): void {
 
 /** Solve a solid axle file (heave or roll) and print axle-solve/1 with the solid axle's keys. */
 function mainSolid(args: Args, axle: Extract<ReturnType<typeof parseAxleFile>, { type: 'solid' }>['axle'], from: number, to: number, step: number): void {
-	if (args.sweep === 'steer') fail(1, '--sweep: a solid axle does not steer (use heave or roll)');
+	if (args.sweep === 'steer' || args.sweep === 'pitch') fail(1, `--sweep: a solid axle ${args.sweep === 'steer' ? 'does not steer' : 'file is not a car'} (use heave or roll)`);
 	if (args['steering-wheel'] !== undefined) fail(1, '--steering-wheel: a solid axle does not steer');
 	const v = axle.vehicle;
 	if (v && v.axle !== 'rear') fail(1, "vehicle.axle: a solid axle is analysed as the rear axle ('rear')");
@@ -187,6 +231,8 @@ function main(): void {
 	const args = parseArgs(process.argv.slice(2));
 	const json = readJson(args.file);
 	if (json && typeof json === 'object' && (json as { format?: unknown }).format === 'axle-geometry/1') return mainAxle(args, json);
+	if (json && typeof json === 'object' && (json as { format?: unknown }).format === 'car-model/1') return mainCar(args, json);
+	if (args.sweep === 'pitch') fail(1, '--sweep: pitch is for a car file (car-model/1)');
 	if (args['steering-wheel'] !== undefined) fail(1, '--steering-wheel: only for an axle file (axle-geometry/1)');
 	const d = SWEEP_DEFAULTS[args.sweep];
 	const from = args.from ?? d.from;

@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { antiRollBarSchema, steeringSchema } from './axle';
 import { solidAxleSchema } from './solid-axle';
 import { keepOutListSchema } from './keep-out';
+import { formatIssue, parseCornerGeometry, type CornerGeometry } from './geometry';
 
 const mm = (what: string) => z.number({ error: `must be a number (mm, ${what})` }).refine((v) => Math.abs(v) <= 100_000, 'is implausibly large (mm expected)');
 
@@ -67,4 +68,33 @@ export function starterModel(wheelbase = 2600, cgHeight = 400): CarModel {
 		rear: { unsprung_mass: 22, spring_rate: 70, tyre_rate: null, right: 'mirror', steering: null, anti_roll_bar: null },
 		keep_out: []
 	};
+}
+
+const POSITIONS = ['front_left', 'front_right', 'rear_left', 'rear_right'] as const;
+
+/**
+ * A car file for the solve command: a car model with its corners inside (corner-geometry/1 each; the right ones
+ * only where measured), and the brake and drive shares anti-dive and anti-squat need.
+ */
+export const carFileSchema = carModelSchema.extend({
+	corners: z.partialRecord(z.enum(POSITIONS, { error: 'must be front_left, front_right, rear_left or rear_right' }), z.unknown(), { error: 'must be an object of corner files by position' }),
+	front_brake_fraction: z.number({ error: 'must be a number in [0, 1]' }).min(0, 'must be in [0, 1]').max(1, 'must be in [0, 1]').nullable().optional(),
+	drive: z.enum(['fwd', 'rwd', 'awd'], { error: "must be 'fwd', 'rwd' or 'awd'" }).nullable().optional()
+});
+
+/** Validates a car file: the model, each corner file (named under `corners.<position>.`) and the settings. */
+export function parseCarFile(input: unknown):
+	| { ok: true; car: { model: CarModel; corners: Partial<Record<(typeof POSITIONS)[number], CornerGeometry>>; settings: { frontBrakeFraction: number | null; driveLayout: 'fwd' | 'rwd' | 'awd' | null } } }
+	| { ok: false; message: string } {
+	const r = carFileSchema.safeParse(input);
+	if (!r.success) return { ok: false, message: formatIssue(r.error) };
+	const { corners: raw, front_brake_fraction, drive, ...model } = r.data;
+	const corners: Partial<Record<(typeof POSITIONS)[number], CornerGeometry>> = {};
+	for (const position of POSITIONS) {
+		if (raw[position] === undefined) continue;
+		const c = parseCornerGeometry(raw[position]);
+		if (!c.ok) return { ok: false, message: `corners.${position}.${c.message}` };
+		corners[position] = c.corner;
+	}
+	return { ok: true, car: { model, corners, settings: { frontBrakeFraction: front_brake_fraction ?? null, driveLayout: drive ?? null } } };
 }

@@ -193,3 +193,45 @@ describe('solve command with an axle file', { timeout: 240_000 }, () => {
 		expect(solid.stderr).toMatch(/^--sweep: a solid axle does not steer/);
 	});
 });
+
+// Car files (car-model/1 with its corners inside): the figures and the pitch sweep, checked by statics written here.
+describe('solve command with a car file', { timeout: 240_000 }, () => {
+	const car = JSON.parse(readFileSync(join(ROOT, 'fixtures/invented-car.json'), 'utf8'));
+	it('prints car-figures/1: the mass is the items plus four unsprung corners; the CG x by moments', async () => {
+		const r = await solve('fixtures/invented-car.json');
+		expect(r.code).toBe(0);
+		const out = JSON.parse(r.stdout);
+		expect(out.format).toBe('car-figures/1');
+		const items = car.mass_items as { mass: number; x: number }[];
+		const mass = items.reduce((s, i) => s + i.mass, 0) + 2 * car.front.unsprung_mass + 2 * car.rear.unsprung_mass;
+		expect(out.mass).toBeCloseTo(mass, 6);
+		// unsprung masses at the wheel centres (the file's own points: front at x = 0)
+		const rearX = car.corners.rear_left.points['wheel.centre'][0];
+		const frontX = car.corners.front_left.points['wheel.centre'][0];
+		const moment = items.reduce((s, i) => s + i.mass * i.x, 0) + 2 * car.rear.unsprung_mass * rearX + 2 * car.front.unsprung_mass * frontX;
+		expect(out.cg[0]).toBeCloseTo(moment / mass, 3);
+	});
+	it('--sweep pitch: each axle travels by its distance from the CG × tan(pitch), front in bump when the nose goes down', async () => {
+		const r = await solve('fixtures/invented-car.json', '--sweep', 'pitch', '--from', '-1', '--to', '1', '--step', '1');
+		expect(r.code).toBe(0);
+		const out = JSON.parse(r.stdout);
+		expect(out.format).toBe('car-pitch/1');
+		const one = out.samples.find((s: { pitch: number }) => s.pitch === 1);
+		expect(one.front.travel).toBeCloseTo((0 - out.pivot_x) * Math.tan(Math.PI / 180), 4);
+		expect(one.rear.travel).toBeCloseTo((-out.wheelbase - out.pivot_x) * Math.tan(Math.PI / 180), 2);
+		expect(typeof one.front.anti).toBe('number'); // anti-dive: the file gives a front brake share
+	});
+	it('refuses a negative mass and a bad corner naming the field (exit 1), and pitch for a corner file', async () => {
+		const negative = structuredClone(car);
+		negative.mass_items[1].mass = -105;
+		const badCorner = structuredClone(car);
+		delete badCorner.corners.front_left.points['lower.front'];
+		const [a, b, c] = await Promise.all([solve(tempFile('neg-car.json', negative)), solve(tempFile('bad-corner-car.json', badCorner)), solve('fixtures/club-fwd-front-left.json', '--sweep', 'pitch')]);
+		expect(a.code).toBe(1);
+		expect(a.stderr).toMatch(/^mass_items\.1\.mass: must be > 0 kg/);
+		expect(b.code).toBe(1);
+		expect(b.stderr).toMatch(/^corners\.front_left\.points\.lower\.front: /);
+		expect(c.code).toBe(1);
+		expect(c.stderr).toMatch(/^--sweep: pitch is for a car file/);
+	});
+});
