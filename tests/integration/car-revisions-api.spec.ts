@@ -97,7 +97,9 @@ describe('car revisions', () => {
 		['a drop link that cannot reach', (m) => ((m.front.anti_roll_bar.link_end = [170, 420, 262]), m), 'front.anti_roll_bar.link_end'],
 		['a measured right side the car does not have', (m) => ((m.rear.right = 'measured'), m), 'rear.right'],
 		['two mass items of one name', (m) => ((m.mass_items[1].name = 'chassis'), m), 'model.mass_items'],
-		['a mass item below the ground', (m) => ((m.mass_items[2].z = -10), m), 'model.mass_items.2.z']
+		['a mass item below the ground', (m) => ((m.mass_items[2].z = -10), m), 'model.mass_items.2.z'],
+		['a keep-out box of zero size', (m) => ({ ...m, keep_out: [{ shape: 'box', name: 'Gearbox', min: [-2400, -170, 120], max: [-2400, 170, 330] }] }), 'model.keep_out.0.max.0'],
+		['a rim barrel of zero width', (m) => ({ ...m, keep_out: [{ shape: 'rim', name: 'Rim', axle: 'front', barrel_radius: 150, clearance: 8, inboard: 0, outboard: 0 }] }), 'model.keep_out.0.outboard']
 	];
 	for (const [what, change, field] of bad) {
 		test(`${what} is refused naming ${field}, nothing written`, async () => {
