@@ -31,6 +31,26 @@ interface Rendered {
 /** Rendered pages by ETag (per link and version; the oldest go first). */
 const pages = new Map<string, Rendered>();
 const PAGES_MAX = 300;
+/** The 304 answers by ETag, built once (the same few hundred at most). */
+const notModified = new Map<string, SheetAnswer>();
+
+/** Keeps value under key in a map of at most PAGES_MAX entries (the oldest go first). */
+function keep<V>(map: Map<string, V>, key: string, value: V) {
+	map.set(key, value);
+	while (map.size > PAGES_MAX) map.delete(map.keys().next().value!);
+	return value;
+}
+
+/** ETags by looked-up link (a lookup is shared by a burst of readers, then dropped). */
+const etags = new WeakMap<Opened, string>();
+function etagOf(found: Opened) {
+	let etag = etags.get(found);
+	if (etag === undefined) {
+		etag = `"${version}-${found.share.id.slice(0, 8)}-${sheetVersion(found).key}"`;
+		etags.set(found, etag);
+	}
+	return etag;
+}
 
 /** What the page load reuses from the hook for this request: the opened link (counted once). */
 const opens = new WeakMap<Request, Opened>();
@@ -99,7 +119,7 @@ async function openSheet({ token, pathname, address, header, mayRender }: Ask): 
 		if (isHttpError(e)) return null;
 		throw e;
 	}
-	const etag = `"${version}-${found.share.id.slice(0, 8)}-${sheetVersion(found).key}"`;
+	const etag = etagOf(found);
 	const fresh = matches(header('if-none-match'), etag);
 	const anonymous = !hasCredentials(header('authorization'), header('cookie'));
 	const kept = !fresh && anonymous ? pages.get(etag) : undefined;
@@ -110,7 +130,7 @@ async function openSheet({ token, pathname, address, header, mayRender }: Ask): 
 		if (isHttpError(e)) return null;
 		throw e;
 	}
-	if (fresh) return { answer: { status: 304, headers: secured(pathname, sheetHeaders(etag)), body: null } };
+	if (fresh) return { answer: notModified.get(etag) ?? keep(notModified, etag, { status: 304, headers: secured(pathname, sheetHeaders(etag)), body: null }) };
 	if (kept) return { answer: { status: 200, headers: kept.headers, body: kept.body } };
 	return { render: found, etag, anonymous };
 }
@@ -138,9 +158,7 @@ export async function serveShareSheet(event: RequestEvent, resolve: (e: RequestE
 	response.headers.set('etag', opening.etag);
 	if (!opening.anonymous || event.locals.user || response.headers.has('set-cookie')) return response;
 	const body = new Uint8Array(await response.arrayBuffer());
-	const rendered: Rendered = { body, headers: secured(pathname, response.headers) };
-	pages.set(opening.etag, rendered);
-	while (pages.size > PAGES_MAX) pages.delete(pages.keys().next().value!);
+	const rendered = keep(pages, opening.etag, { body, headers: secured(pathname, response.headers) });
 	return new Response(body, { status: 200, headers: rendered.headers });
 }
 
