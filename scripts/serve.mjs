@@ -44,18 +44,38 @@ function clientAddress(req) {
 	return xffDepth >= 1 && xffDepth <= addresses.length ? addresses[addresses.length - xffDepth].trim() : undefined;
 }
 
-/** SvelteKit's path (static files, then the app); an error escaping it is answered as polka (build/index.js) would. */
+/** An error escaping a handler, answered as polka (build/index.js) would. */
+function fail(res, err) {
+	if (res.headersSent) return void res.destroy();
+	res.statusCode = typeof err?.status === 'number' && err.status >= 100 ? err.status : 500;
+	res.end(err?.message || http.STATUS_CODES[res.statusCode]);
+}
+
+/** SvelteKit's path: static files, then the app. */
 function slow(req, res) {
-	const fail = (err) => {
-		if (res.headersSent) return void res.destroy();
-		res.statusCode = typeof err?.status === 'number' && err.status >= 100 ? err.status : 500;
-		res.end(err?.message || http.STATUS_CODES[res.statusCode]);
-	};
-	Promise.resolve(handler(req, res, (err) => fail(err ?? { status: 404 }))).catch(fail);
+	try {
+		Promise.resolve(handler(req, res, (err) => fail(res, err ?? { status: 404 }))).catch((err) => fail(res, err));
+	} catch (err) {
+		fail(res, err);
+	}
 }
 
 /** Requests the fast path answered (printed at shutdown). */
 let fastAnswers = 0;
+
+/** The fast path's answer written out, or SvelteKit's path when it has none (or fails: e.g. the database is down). */
+async function fastOrSlow(req, res, pathname, address) {
+	let answer = null;
+	try {
+		answer = await fastPath(req.method, pathname, req.headers, address);
+	} catch {
+		// left to SvelteKit, which answers it (503 when the database is unreachable)
+	}
+	if (!answer) return slow(req, res);
+	res.writeHead(answer.status, answer.headers);
+	res.end(answer.body ?? undefined);
+	fastAnswers++;
+}
 
 function onRequest(req, res) {
 	const { method, url, headers } = req;
@@ -64,15 +84,7 @@ function onRequest(req, res) {
 		// a GET with a body is left to SvelteKit (it ignores it, but reads nothing over BODY_SIZE_LIMIT)
 		if (address && !headers['transfer-encoding'] && !(Number(headers['content-length']) > 0)) {
 			const q = url.indexOf('?');
-			fastPath(method, q < 0 ? url : url.slice(0, q), headers, address).then(
-				(answer) => {
-					if (!answer) return slow(req, res);
-					fastAnswers++;
-					res.writeHead(answer.status, answer.headers);
-					res.end(answer.body ?? undefined);
-				},
-				() => slow(req, res)
-			);
+			fastOrSlow(req, res, q < 0 ? url : url.slice(0, q), address).catch((err) => fail(res, err));
 			return;
 		}
 	}
