@@ -37,7 +37,7 @@ if (fakeMail) {
 	say(`fake SMTP server on 127.0.0.1:${mail.port}; messages kept in ${mail.dir}`);
 }
 say(`Linkwright on http://127.0.0.1:${port}  (demo accounts in README.md; Ctrl-C stops the app, \`npm run db stop\` stops PostgreSQL)`);
-const app = spawn(process.execPath, ['build'], { cwd: root, env, stdio: ['inherit', 'inherit', 'inherit', 'ipc'] });
+const app = spawn(process.execPath, ['scripts/serve.mjs'], { cwd: root, env, stdio: ['inherit', 'inherit', 'inherit', 'ipc'] });
 
 let stopping = false;
 /** Stops the app (SIGTERM, SIGKILL after 8 s), then the mail server, then exits. */

@@ -10,7 +10,7 @@ export const testSmtpPort = Number(process.env.LW_SMTP_PORT ?? 2526);
 /** Starts the built app on port against the test database, mailing to the fake server; returns the child process. */
 export function startTestServer(port, smtpPort = testSmtpPort) {
 	const env = { ...process.env, ...appEnv({ databaseUrl: databaseUrl(testDatabase), port, smtpPort }), LW_DEMO: 'true' };
-	return spawn('node', ['build'], { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] });
+	return spawn(process.execPath, ['scripts/serve.mjs'], { cwd: root, env, stdio: ['ignore', 'inherit', 'inherit'] });
 }
 
 /** Starts the fake SMTP server of the tests with an empty mailbox. */

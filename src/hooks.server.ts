@@ -11,9 +11,11 @@ import { errorResponse } from '$lib/server/api';
 import { isCrossSiteForm } from '$lib/server/http/csrf';
 import { withSecurityHeaders } from '$lib/server/http/headers';
 import { RETRY_AFTER_S, UNAVAILABLE_MESSAGE, isDatabaseUnavailable, logUnavailable } from '$lib/server/http/outage';
-import { serveShareSheet } from '$lib/server/sharing/sheet-cache';
+import { installShareFastPath, serveShareSheet } from '$lib/server/sharing/sheet-cache';
 
 installShutdown();
+// the share sheet's fast path for the server entry (scripts/serve.mjs): cached sheets answered before SvelteKit
+installShareFastPath();
 
 const isApi = (event: RequestEvent) => event.url.pathname === '/api' || event.url.pathname.startsWith('/api/');
 

@@ -195,7 +195,7 @@ describe('outage answers: 503 with Retry-After, /healthz, reconnection (RFC 9110
 		// This instance believes it is served over https (a TLS proxy in front): its cookies must be Secure.
 		const { spawn } = await import('node:child_process');
 		const { appEnv } = await import('../../scripts/setup.mjs');
-		app = spawn('node', ['build'], {
+		app = spawn(process.execPath, ['scripts/serve.mjs'], {
 			env: { ...process.env, ...appEnv({ databaseUrl: url.toString(), port, smtpPort: Number(process.env.LW_SMTP_PORT ?? 2526) }), ORIGIN: origin, LW_DEMO: 'false' },
 			stdio: ['ignore', 'ignore', 'ignore']
 		});

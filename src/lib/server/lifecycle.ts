@@ -1,5 +1,6 @@
-// Graceful shutdown of the built app (adapter-node). On SIGTERM or SIGINT adapter-node stops accepting, lets the
-// requests in flight finish (SHUTDOWN_TIMEOUT s, which `npm start` sets to 3) and then emits `sveltekit:shutdown`;
+// Graceful shutdown of the built app. On SIGTERM or SIGINT the server entry (scripts/serve.mjs, as adapter-node's
+// build/index.js) stops accepting, lets the requests in flight finish (SHUTDOWN_TIMEOUT s, which `npm start` sets to
+// 3) and then emits `sveltekit:shutdown`;
 // here the registered steps run (last registered first: flush what is batched, then close the pool), so nothing
 // holds the event loop and the process exits. Whatever still runs 5 s after the signal is ended by a backstop.
 import { building, dev } from '$app/environment';

@@ -9,26 +9,30 @@ export const PERMISSIONS_POLICY =
 /** CSP for answers that are not pages: nothing may load or frame them (OWASP REST Security Cheat Sheet). */
 export const NON_PAGE_CSP = "default-src 'none'; frame-ancestors 'none'";
 
-/** Share links carry their token in the path: never send it on in a Referer (OWASP, "Referrer-Policy"). */
-function referrerPolicy(event: RequestEvent) {
-	return event.url.pathname.startsWith('/s/') ? 'no-referrer' : 'same-origin';
+/**
+ * The security headers of an answer to pathname, given which headers it already has (a route's own CSP and
+ * Referrer-Policy are kept). Share links carry their token in the path: never sent on in a Referer (OWASP,
+ * "Referrer-Policy"). One list for both the SvelteKit path and the share sheet's fast path (sharing/sheet-cache.ts).
+ */
+export function securityHeaders(pathname: string, has: (name: string) => boolean): [string, string][] {
+	const out: [string, string][] = [['x-content-type-options', 'nosniff']];
+	if (!has('content-security-policy')) out.push(['content-security-policy', NON_PAGE_CSP]);
+	out.push(['x-frame-options', 'DENY']);
+	if (pathname.startsWith('/s/')) out.push(['referrer-policy', 'no-referrer']);
+	else if (!has('referrer-policy')) out.push(['referrer-policy', 'same-origin']);
+	out.push(['permissions-policy', PERMISSIONS_POLICY], ['cross-origin-opener-policy', 'same-origin']);
+	return out;
 }
 
 /** Sets the headers on a response (a copy when its headers are immutable); a route's own choice is kept. */
 export function withSecurityHeaders(event: RequestEvent, response: Response): Response {
+	const set = securityHeaders(event.url.pathname, (name) => response.headers.has(name));
 	let res = response;
 	try {
-		res.headers.set('x-content-type-options', 'nosniff');
+		res.headers.set(set[0][0], set[0][1]);
 	} catch {
 		res = new Response(response.body, response);
-		res.headers.set('x-content-type-options', 'nosniff');
 	}
-	const h = res.headers;
-	if (!h.has('content-security-policy')) h.set('content-security-policy', NON_PAGE_CSP);
-	h.set('x-frame-options', 'DENY');
-	if (event.url.pathname.startsWith('/s/')) h.set('referrer-policy', 'no-referrer');
-	else if (!h.has('referrer-policy')) h.set('referrer-policy', referrerPolicy(event));
-	h.set('permissions-policy', PERMISSIONS_POLICY);
-	h.set('cross-origin-opener-policy', 'same-origin');
+	for (const [name, value] of set) res.headers.set(name, value);
 	return res;
 }
