@@ -57,3 +57,33 @@ test('turning the steering wheel in the 3-D view turns both road wheels, the inn
 	expect(left).toBeGreaterThan(right);
 	await expect(page.getByText('Ackermann', { exact: true }).first()).toBeVisible();
 });
+
+test('the engineer shares the front axle; a fabricator without an account reads both sides on the sheet', async ({ page, browser }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(`/cars/${SINGLE_SEATER}/model`);
+	await settled(page);
+	const panel = page.getByTestId('axle-shares');
+	await panel.getByLabel('Axle to share').selectOption('front');
+	await panel.getByLabel('Note for the fabricator').fill('Front axle, for the jig');
+	await panel.getByRole('button', { name: 'Make a read-only link' }).click();
+	const link = page.getByTestId('axle-share-url');
+	await expect(link).toBeVisible();
+	const url = (await link.getAttribute('href'))!;
+	await expect(page.getByTestId('axle-share-list')).toContainText('Front axle, for the jig');
+
+	const fabricator = await browser.newContext();
+	const sheet = await fabricator.newPage();
+	await sheet.goto(url);
+	await expect(sheet.getByRole('heading', { name: /Front axle/ })).toBeVisible();
+	await expect(sheet.getByTestId('caution')).toBeVisible();
+	for (const side of ['left', 'right']) await expect(sheet.getByTestId(`axle-side-${side}`).locator('tr[data-point="steer.outer"]')).toHaveCount(1);
+	// the right side is the left one mirrored: same x and z, y of the other sign
+	const cells = async (side: string) => (await sheet.getByTestId(`axle-side-${side}`).locator('tr[data-point="steer.outer"] td').allTextContents()).slice(1).map((t) => num(t));
+	const [l, r] = [await cells('left'), await cells('right')];
+	expect(r[0]).toBeCloseTo(l[0], 1);
+	expect(r[1]).toBeCloseTo(-l[1], 1);
+	expect(r[2]).toBeCloseTo(l[2], 1);
+	await expect(sheet.getByTestId('axle-sheet-steering')).toBeVisible();
+	await sheet.screenshot({ path: 'test-results/screens/axle-sheet.png', fullPage: true });
+	await fabricator.close();
+});

@@ -10,7 +10,7 @@ import path from 'node:path';
 import { eq, inArray, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { hashToken, newToken } from '../../src/lib/server/auth/tokens';
-import { createShareLink } from '../../src/lib/server/db/queries/shares';
+import { createAxleShareLink, createShareLink } from '../../src/lib/server/db/queries/shares';
 import { createApiToken } from '../../src/lib/server/db/queries/users';
 import { revisions, studies, users } from '../../src/lib/server/db/schema';
 import { Client, DEMO_CAR_ID, DEMO_TEAM_ID, baseUrl, closeDb, freshAccount, testDb } from './helpers';
@@ -73,6 +73,8 @@ const TABLE: Record<string, string> = {
 	'GET /api/v1/car-revisions/[carRevisionId=id]': TEAM_VIEW,
 	'GET /api/v1/car-revisions/[carRevisionId=id]/axles/[axle=axle]': TEAM_VIEW,
 	'GET /api/v1/car-revisions/[carRevisionId=id]/pitch': TEAM_VIEW,
+	'GET /api/v1/car-revisions/[carRevisionId=id]/shares': TEAM_SHARE,
+	'POST /api/v1/car-revisions/[carRevisionId=id]/shares': TEAM_SHARE,
 	'GET /api/v1/car-revisions/[carRevisionId=id]/changes': TEAM_VIEW,
 	'PUT /api/v1/corners/[cornerId=id]/baseline': TEAM_EDIT,
 	'POST /api/v1/corners/[cornerId=id]/import': TEAM_EDIT,
@@ -131,6 +133,8 @@ const TABLE: Record<string, string> = {
 	'POST /revisions/[revisionId=id] ?/revokeShare': TEAM_SHARE,
 	'GET /s/[token=token]': SHARE_HOLDER,
 	'GET /s/[token=token]/csv': SHARE_HOLDER,
+	'GET /s/axle/[token=token]': SHARE_HOLDER,
+	'GET /s/axle/[token=token]/csv': SHARE_HOLDER,
 	'GET /signin': GUEST_PAGE,
 	'POST /signin': PUBLIC,
 	'GET /signout': PUBLIC,
@@ -195,6 +199,7 @@ interface Ids {
 	revisionId: string;
 	studyId: string;
 	shareToken: string;
+	axleShareToken: string;
 	tokens: Record<'viewer' | 'engineer' | 'owner', string>;
 }
 
@@ -222,6 +227,8 @@ describe('route × role', () => {
 		ids.studyId = study.id;
 		ids.shareToken = newToken();
 		await createShareLink(db, { teamId: DEMO_TEAM_ID, revisionId: rev.id, tokenHash: hashToken(ids.shareToken), note: '', showRevisionNote: false, expiresAt: new Date(Date.now() + 86400_000), createdBy: demoUsers[0].id });
+		ids.axleShareToken = newToken();
+		await createAxleShareLink(db, { teamId: DEMO_TEAM_ID, carRevisionId: DEMO_CAR_REVISION, axle: 'front', tokenHash: hashToken(ids.axleShareToken), note: '', showRevisionNote: false, expiresAt: new Date(Date.now() + 86400_000), createdBy: demoUsers[0].id });
 	});
 
 	afterAll(closeDb);
@@ -244,7 +251,7 @@ describe('route × role', () => {
 			'[studyId=id]': ids.studyId,
 			'[shareId=id]': freshShareId,
 			'[messageId]': 'no-such-message',
-			'[token=token]': routeId.startsWith('/s/') ? ids.shareToken : newToken()
+			'[token=token]': routeId.startsWith('/s/axle/') ? ids.axleShareToken : routeId.startsWith('/s/') ? ids.shareToken : newToken()
 		};
 		let out = routeId;
 		for (const [param, value] of Object.entries(values)) {

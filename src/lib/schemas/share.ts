@@ -32,3 +32,9 @@ export type CreateShareInput = z.infer<typeof createShareInput>;
 
 /** The token of a link as it appears in /s/{token}: URL-safe base64 of 32 random bytes. */
 export const SHARE_TOKEN_PATTERN = /^[A-Za-z0-9_-]{43}$/;
+
+/** A link to one axle of a car revision: the axle, then the same expiry and note as a revision's link. */
+export const createAxleShareInput = createShareInput.omit({ email: true, showRevisionNote: true }).extend({
+	axle: z.enum(['front', 'rear'], { message: "axle must be 'front' or 'rear'" })
+});
+export type CreateAxleShareInput = z.infer<typeof createAxleShareInput>;

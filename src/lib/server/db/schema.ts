@@ -24,7 +24,9 @@ export const CORNER_POSITIONS = ['front_left', 'front_right', 'rear_left', 'rear
 /** The suspension kinds: the one list of the kinds' descriptions (src/lib/kinds). */
 export const SUSPENSION_KINDS = CORNER_KINDS;
 export const DRIVE_LAYOUTS = ['fwd', 'rwd', 'awd'] as const;
-export const SHARE_SCOPES = ['revision', 'car'] as const;
+export const SHARE_SCOPES = ['revision', 'car', 'axle'] as const;
+/** The axles a share link of scope 'axle' may carry. */
+export const SHARE_AXLES = ['front', 'rear'] as const;
 
 /** SQL `col IN ('a','b')` for a check constraint over a fixed set of values. */
 function oneOf(column: AnyPgColumn, values: readonly string[]) {
@@ -205,6 +207,9 @@ export const shareLinks = pgTable(
 		scope: text('scope', { enum: SHARE_SCOPES }).notNull(),
 		revisionId: uuid('revision_id').references(() => revisions.id, { onDelete: 'cascade' }),
 		carId: uuid('car_id').references(() => cars.id, { onDelete: 'cascade' }),
+		/** scope 'axle': one axle of one car revision (both sides, steering, figures) */
+		carRevisionId: uuid('car_revision_id').references((): AnyPgColumn => carRevisions.id, { onDelete: 'cascade' }),
+		axle: text('axle', { enum: SHARE_AXLES }),
 		note: text('note').notNull().default(''),
 		/** the sheet shows the revision's internal note only when the engineer ticked it for this link */
 		showRevisionNote: boolean('show_revision_note').notNull().default(false),
@@ -219,10 +224,12 @@ export const shareLinks = pgTable(
 		uniqueIndex('share_links_token_key').on(t.tokenHash),
 		index('share_links_revision_idx').on(t.revisionId, t.createdAt),
 		index('share_links_car_idx').on(t.carId, t.createdAt),
+		index('share_links_car_revision_idx').on(t.carRevisionId, t.createdAt),
 		check('share_links_scope_check', oneOf(t.scope, SHARE_SCOPES)),
+		check('share_links_axle_check', sql`${t.axle} is null or ${oneOf(t.axle, SHARE_AXLES)}`),
 		check(
 			'share_links_scope_target',
-			sql`(${t.scope} = 'revision' and ${t.revisionId} is not null) or (${t.scope} = 'car' and ${t.carId} is not null)`
+			sql`(${t.scope} = 'revision' and ${t.revisionId} is not null) or (${t.scope} = 'car' and ${t.carId} is not null) or (${t.scope} = 'axle' and ${t.carRevisionId} is not null and ${t.axle} is not null)`
 		)
 	]
 );
@@ -353,6 +360,7 @@ export type User = typeof users.$inferSelect;
 export type Team = typeof teams.$inferSelect;
 export type Membership = typeof memberships.$inferSelect;
 export type Car = typeof cars.$inferSelect;
+export type CarRevision = typeof carRevisions.$inferSelect;
 export type Corner = typeof corners.$inferSelect;
 export type Revision = typeof revisions.$inferSelect;
 export type Role = (typeof ROLES)[number];

@@ -2,7 +2,7 @@
 import { and, desc, eq, getTableColumns, sql } from 'drizzle-orm';
 import { tolerancesOfRevisionSql } from './tolerances';
 import type { Database } from '../connect';
-import { auditEvents, cars, corners, memberships, revisions, shareLinks, users } from '../schema';
+import { auditEvents, carRevisions, cars, corners, memberships, revisions, shareLinks, users } from '../schema';
 
 export interface NewShareLink {
 	teamId: string;
@@ -38,6 +38,44 @@ export function sharesOfRevision(db: Database, revisionId: string) {
 		.leftJoin(users, eq(users.id, shareLinks.createdBy))
 		.where(eq(shareLinks.revisionId, revisionId))
 		.orderBy(desc(shareLinks.createdAt));
+}
+
+/** Stores a new link to one axle of a car revision (scope 'axle'). */
+export async function createAxleShareLink(db: Database, input: Omit<NewShareLink, 'revisionId'> & { carRevisionId: string; axle: 'front' | 'rear' }) {
+	const [row] = await db.insert(shareLinks).values({ ...input, scope: 'axle' }).returning();
+	return row;
+}
+
+/** A car revision's axle links, newest first, with the creator's name (never the token). */
+export function sharesOfCarRevision(db: Database, carRevisionId: string) {
+	return db
+		.select({
+			id: shareLinks.id,
+			axle: shareLinks.axle,
+			note: shareLinks.note,
+			createdAt: shareLinks.createdAt,
+			expiresAt: shareLinks.expiresAt,
+			revokedAt: shareLinks.revokedAt,
+			lastOpenedAt: shareLinks.lastOpenedAt,
+			openCount: shareLinks.openCount,
+			createdByName: users.name
+		})
+		.from(shareLinks)
+		.leftJoin(users, eq(users.id, shareLinks.createdBy))
+		.where(and(eq(shareLinks.carRevisionId, carRevisionId), eq(shareLinks.scope, 'axle')))
+		.orderBy(desc(shareLinks.createdAt));
+}
+
+/** An axle link by its token's hash with its car revision and car (the car in the link's own team); null when unknown. */
+export async function axleShareToOpen(db: Database, tokenHash: string) {
+	const [row] = await db
+		.select({ share: shareLinks, carRevision: carRevisions, car: cars })
+		.from(shareLinks)
+		.innerJoin(carRevisions, eq(carRevisions.id, shareLinks.carRevisionId))
+		.innerJoin(cars, and(eq(cars.id, carRevisions.carId), eq(cars.teamId, shareLinks.teamId)))
+		.where(and(eq(shareLinks.tokenHash, tokenHash), eq(shareLinks.scope, 'axle')))
+		.limit(1);
+	return row ?? null;
 }
 
 /** A link (with the caller's role in its team) if the user is a member of the team that made it; else null. */

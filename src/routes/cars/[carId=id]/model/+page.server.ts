@@ -2,6 +2,7 @@ import { fail, redirect } from '@sveltejs/kit';
 import { carRevisionInput, starterModel, type CarModel } from '$lib/schemas/car-model';
 import { db } from '$lib/server/db';
 import { carRevisionOfCar, carRevisionsOfCar, latestCornerRevisions } from '$lib/server/db/queries/car-revisions';
+import { listAxleShares } from '$lib/server/sharing/axle-sheet';
 import { carPitchSweep, figuresOrInvalid, loadCarRevision, saveCarRevision } from '$lib/server/cars/model';
 import { can, requireCar } from '$lib/server/permissions';
 import { isHttpError } from '@sveltejs/kit';
@@ -29,7 +30,7 @@ export const load: PageServerLoad = async (event) => {
 	const [list, row, latestCorners] = await Promise.all([carRevisionsOfCar(db, car.id), carRevisionOfCar(db, car.id, rev && /^[0-9a-f-]{36}$/i.test(rev) ? rev : null), latestCornerRevisions(db, car.id)]);
 	const positions = Object.keys(latestCorners);
 	if (!row) {
-		return { car, canEdit: can(role, 'edit'), revisions: list, current: null, model: starterModel(car.wheelbaseMm ?? 2600, car.cgHeightMm ?? 400), positions, figures: null, compare: null, axles: null, scene: null, sceneError: null, pitch: null };
+		return { car, canEdit: can(role, 'edit'), revisions: list, current: null, model: starterModel(car.wheelbaseMm ?? 2600, car.cgHeightMm ?? 400), positions, figures: null, compare: null, axles: null, scene: null, sceneError: null, pitch: null, axleShares: [] };
 	}
 	const vsId = event.url.searchParams.get('vs') ?? row.parentId;
 	const [loaded, vsRow] = await Promise.all([loadCarRevision(row), vsId && /^[0-9a-f-]{36}$/i.test(vsId) ? carRevisionOfCar(db, car.id, vsId) : Promise.resolve(null)]);
@@ -46,6 +47,7 @@ export const load: PageServerLoad = async (event) => {
 	const scene = figures.ok ? tryFigures(() => carScene(car, loaded.model, loaded.corners, figures.value, steer)) : null;
 	// the whole car pitched about its CG: anti-dive and anti-squat through ±2° (+ = nose down)
 	const pitchRun = figures.ok ? tryFigures(() => carPitchSweep(car, loaded.model, loaded.corners, { from: -2, to: 2, step: 0.25 })) : null;
+	const axleShares = can(role, 'share') ? await listAxleShares(row.id) : [];
 	const pitch = pitchRun?.ok ? pitchRun.value.samples.map((x) => ({ pitch: x.pitch, front: x.front.anti, rear: x.rear.anti, frontTravel: x.front.travel, rearTravel: x.rear.travel })) : null;
 	return {
 		car,
@@ -60,6 +62,7 @@ export const load: PageServerLoad = async (event) => {
 		axles,
 		scene: scene?.ok ? scene.value : null,
 		pitch,
+		axleShares,
 		sceneError: scene && !scene.ok ? scene.message : null
 	};
 };
