@@ -98,6 +98,26 @@ export class PackagingCheck {
 	 * assembled.
 	 */
 	measure(m: CornerModel, main: SweepBuffer, depths: Float64Array, ratios: Float64Array): boolean {
+		const ok = this.eachRow(m, main, (buf, k, row) => this.rowDepths(buf, k, row, depths, null));
+		return ok && (this.spec.ratio && ratios.length ? this.ratios(m, this.spec.ratio, ratios) : true);
+	}
+
+	/** The deepest reach of each volume over every row, with the member and the pose (for the report). */
+	reaches(m: CornerModel, main: SweepBuffer): Reach[] | null {
+		const best: Reach[] = this.spec.volumes.map(() => ({ depth: -Infinity, member: '', travel: 0, rack: 0 }));
+		const ok = this.eachRow(m, main, (buf, k, row) =>
+			this.rowDepths(buf, k, 0, null, (v, depth, member) => {
+				if (depth > best[v].depth) best[v] = { depth, member, travel: buf.positions[k], rack: this.racks[Math.floor(row / this.travelCount)] };
+			})
+		);
+		return ok ? best : null;
+	}
+
+	/**
+	 * Each row (rack position × travel position) of model m: the rack-0 rows from `main`, a heave sweep run with
+	 * points, the others solved here with the rack held. False when a pose cannot be assembled.
+	 */
+	private eachRow(m: CornerModel, main: SweepBuffer, row: (buf: SweepBuffer, k: number, row: number) => void): boolean {
 		const n = this.travelCount;
 		for (let r = 0; r < this.racks.length; r++) {
 			let buf = main;
@@ -106,27 +126,9 @@ export class PackagingCheck {
 				runSweep(m, { ...this.heave, rack: this.racks[r], points: true }, buf);
 				if (buf.failCode !== OK || buf.lo !== 0 || buf.hi !== n - 1) return false;
 			}
-			for (let k = 0; k < n; k++) this.rowDepths(buf, k, r * n + k, depths, null);
+			for (let k = 0; k < n; k++) row(buf, k, r * n + k);
 		}
-		return this.spec.ratio && ratios.length ? this.ratios(m, this.spec.ratio, ratios) : true;
-	}
-
-	/** The deepest reach of each volume over every row, with the member and the pose (for the report). */
-	reaches(m: CornerModel, main: SweepBuffer): Reach[] | null {
-		const n = this.travelCount;
-		const best: Reach[] = this.spec.volumes.map(() => ({ depth: -Infinity, member: '', travel: 0, rack: 0 }));
-		for (let r = 0; r < this.racks.length; r++) {
-			let buf = main;
-			if (r > 0) {
-				buf = this.buffer;
-				runSweep(m, { ...this.heave, rack: this.racks[r], points: true }, buf);
-				if (buf.failCode !== OK || buf.lo !== 0 || buf.hi !== n - 1) return null;
-			}
-			for (let k = 0; k < n; k++) this.rowDepths(buf, k, 0, null, (v, depth, member) => {
-				if (depth > best[v].depth) best[v] = { depth, member, travel: buf.positions[k], rack: this.racks[r] };
-			});
-		}
-		return best;
+		return true;
 	}
 
 	/** Steering-wheel angles (degrees) of the ratio positions. */

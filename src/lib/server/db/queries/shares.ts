@@ -20,20 +20,22 @@ export async function createShareLink(db: Database, input: NewShareLink) {
 	return row;
 }
 
+/** A link's columns as the lists show them, with the creator's name (never the token). */
+const LISTED = {
+	id: shareLinks.id,
+	note: shareLinks.note,
+	createdAt: shareLinks.createdAt,
+	expiresAt: shareLinks.expiresAt,
+	revokedAt: shareLinks.revokedAt,
+	lastOpenedAt: shareLinks.lastOpenedAt,
+	openCount: shareLinks.openCount,
+	createdByName: users.name
+};
+
 /** A revision's links, newest first, with the creator's name (never the token). */
 export function sharesOfRevision(db: Database, revisionId: string) {
 	return db
-		.select({
-			id: shareLinks.id,
-			note: shareLinks.note,
-			showRevisionNote: shareLinks.showRevisionNote,
-			createdAt: shareLinks.createdAt,
-			expiresAt: shareLinks.expiresAt,
-			revokedAt: shareLinks.revokedAt,
-			lastOpenedAt: shareLinks.lastOpenedAt,
-			openCount: shareLinks.openCount,
-			createdByName: users.name
-		})
+		.select({ ...LISTED, showRevisionNote: shareLinks.showRevisionNote })
 		.from(shareLinks)
 		.leftJoin(users, eq(users.id, shareLinks.createdBy))
 		.where(eq(shareLinks.revisionId, revisionId))
@@ -49,17 +51,7 @@ export async function createAxleShareLink(db: Database, input: Omit<NewShareLink
 /** A car revision's axle links, newest first, with the creator's name (never the token). */
 export function sharesOfCarRevision(db: Database, carRevisionId: string) {
 	return db
-		.select({
-			id: shareLinks.id,
-			axle: shareLinks.axle,
-			note: shareLinks.note,
-			createdAt: shareLinks.createdAt,
-			expiresAt: shareLinks.expiresAt,
-			revokedAt: shareLinks.revokedAt,
-			lastOpenedAt: shareLinks.lastOpenedAt,
-			openCount: shareLinks.openCount,
-			createdByName: users.name
-		})
+		.select({ ...LISTED, axle: shareLinks.axle })
 		.from(shareLinks)
 		.leftJoin(users, eq(users.id, shareLinks.createdBy))
 		.where(and(eq(shareLinks.carRevisionId, carRevisionId), eq(shareLinks.scope, 'axle')))
