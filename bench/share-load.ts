@@ -125,6 +125,18 @@ export async function shareLink(base: string) {
 	return { url: share.url as string, cookie, revisionId: revision.id as string, cornerId: corner.id as string };
 }
 
+/**
+ * The first opening (renders the sheet), then a warm-up, not measured, from addresses from `firstAddress` on (two
+ * rounds of READERS), as benchmarks usually do: first connections, and the JIT of the page's and the 304's paths in
+ * the server and in this client. The revalidating round is as long as a measured one: with only the page's path
+ * warmed, the first measured round cost the server about three times the CPU per request of the next one.
+ */
+export async function warmUp(url: string, firstAddress: number) {
+	await get(new http.Agent(), url, {});
+	await readers(url, { revalidate: false, firstAddress, opens: 2 });
+	await readers(url, { revalidate: true, firstAddress: firstAddress + READERS });
+}
+
 /** Prints the figures (`npm run bench -- share-load`): the built app on LW_TEST_PORT+75 against the test database. */
 export async function run() {
 	ensureBuild();
@@ -136,13 +148,7 @@ export async function run() {
 		await waitForHttp(`${base}/signin`);
 		const { url } = await shareLink(base);
 		const path = new URL(url).pathname;
-		await get(new http.Agent(), base + path, {}); // the first opening renders the sheet
-		// Warm-up, not measured, from other addresses, as benchmarks usually do: first connections, and the JIT of
-		// the page's and the 304's paths in the server and in this client. The revalidating round is as long as a
-		// measured one: with only the page's path warmed, the first measured round cost the server about three times
-		// the CPU per request of the next one (tiering up the 304 path).
-		await readers(base + path, { revalidate: false, firstAddress: 2 + 2 * READERS, opens: 2 });
-		await readers(base + path, { revalidate: true, firstAddress: 2 + 3 * READERS });
+		await warmUp(base + path, 2 + 2 * READERS);
 		console.log(`  ${READERS} readers × ${OPENS} openings of one link, each reader from its own 127.0.0.x address (load ${(await import('node:os')).loadavg()[0].toFixed(2)})`);
 		report('browsers (reopen revalidates: 304)', await measured(server.pid, base + path, { revalidate: true, firstAddress: 2 }));
 		report('full page every time (no ETag sent)', await measured(server.pid, base + path, { revalidate: false, firstAddress: 2 + READERS }));

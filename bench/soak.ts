@@ -15,7 +15,7 @@ import { hashToken, newToken } from '../src/lib/server/auth/tokens';
 import { connect } from '../src/lib/server/db/connect';
 import { createApiToken } from '../src/lib/server/db/queries/users';
 import { revisions, users } from '../src/lib/server/db/schema';
-import { percentile, readers, report, shareLink } from './share-load';
+import { percentile, readers, report, shareLink, warmUp } from './share-load';
 import { readFileSync } from 'node:fs';
 
 const SOLVERS = 50;
@@ -62,7 +62,7 @@ async function main() {
 		console.log('\n== 1. share sheet: 200 readers × 10 openings');
 		const path = new URL(url).pathname;
 		await fetch(base + path).then((r) => r.text());
-		await readers(base + path, { revalidate: false, firstAddress: 402, opens: 2 }); // warm-up, not measured
+		await warmUp(base + path, 402); // not measured: the same warm-up as `npm run bench -- share-load`
 		report('browsers (reopen revalidates: 304)', await readers(base + path, { revalidate: true, firstAddress: 2 }));
 		report('full page every time (no ETag sent)', await readers(base + path, { revalidate: false, firstAddress: 202 }));
 

@@ -1,7 +1,7 @@
 // Car revisions: immutable snapshots of a car's own model pinning one revision of each corner.
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
-import { retryingNumberRace } from './numbering';
+import { lockNumbering, retryingNumberRace } from './numbering';
 import { carRevisions, cars, corners, memberships, revisions, users } from '../schema';
 
 export type NewCarRevision = Omit<typeof carRevisions.$inferInsert, 'number' | 'createdAt'>;
@@ -10,6 +10,7 @@ export type NewCarRevision = Omit<typeof carRevisions.$inferInsert, 'number' | '
 export async function appendCarRevision(db: Database, input: NewCarRevision, alongside?: (tx: Database, row: typeof carRevisions.$inferSelect) => Promise<void>) {
 	return retryingNumberRace('car_revisions_car_number_key', () =>
 		db.transaction(async (tx) => {
+			await lockNumbering(tx as unknown as Database, 'car_revisions', input.carId);
 			const [row] = await tx
 				.insert(carRevisions)
 				.values({ ...input, number: sql`(select coalesce(max(${carRevisions.number}), 0) + 1 from ${carRevisions} where ${carRevisions.carId} = ${input.carId})` })

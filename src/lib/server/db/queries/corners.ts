@@ -1,7 +1,7 @@
 // Corners and their immutable revisions, reached through the caller's memberships.
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
-import { retryingNumberRace } from './numbering';
+import { lockNumbering, retryingNumberRace } from './numbering';
 import { createHash } from 'node:crypto';
 import { cars, corners, memberships, revisions, uploads, users, type Corner } from '../schema';
 
@@ -125,6 +125,7 @@ export async function appendRevision(
 ) {
 	return retryingNumberRace('revisions_corner_number_key', () =>
 		db.transaction(async (tx) => {
+			await lockNumbering(tx as unknown as Database, 'revisions', input.cornerId);
 			const [row] = await tx
 				.insert(revisions)
 				.values({
