@@ -2,7 +2,7 @@
 // prints it, the engineer revokes it; a viewer cannot share. Each journey makes its own car and revisions.
 import { readFileSync } from 'node:fs';
 import { expect, test, type APIRequestContext, type Page } from '@playwright/test';
-import { signIn } from './helpers';
+import { settled, signIn } from './helpers';
 import { pdfPages } from './pdf-text';
 
 const stock = JSON.parse(readFileSync('fixtures/club-fwd-front-left.json', 'utf8'));
@@ -47,6 +47,9 @@ test('an engineer mails a link; the fabricator opens it signed out, reads and pr
 	const url = await page.getByTestId('share-url').inputValue();
 	expect(url).toMatch(/\/s\/[A-Za-z0-9_-]{43}$/);
 	await expect(page.getByTestId('share-list').locator('tbody tr')).toHaveCount(1);
+	// the list says whom the link went to, and the form is ready for the next link with the default validity
+	await expect(page.getByTestId('share-sent-to')).toHaveText(fabricator);
+	await expect(panel.getByLabel('Valid for (days)')).not.toHaveValue('');
 	await page.screenshot({ path: 'test-results/screens/share-panel.png', fullPage: true });
 
 	// The mail arrived in the fake SMTP server, and the mailbox page shows its link.
@@ -100,6 +103,14 @@ test('an engineer mails a link; the fabricator opens it signed out, reads and pr
 
 	// Revoked from the revision page: the same URL no longer opens.
 	await page.goto(`/revisions/${revisionId}`);
+	await settled(page);
+	// Revoke asks first: dismissed, the link stays; accepted, it goes
+	let asked = '';
+	page.once('dialog', (d) => ((asked = d.message()), d.dismiss()));
+	await page.getByTestId('share-list').getByRole('button', { name: 'Revoke' }).click();
+	await expect.poll(() => asked).toContain(`sent to ${fabricator}`);
+	await expect(page.getByTestId('share-list').getByRole('button', { name: 'Revoke' })).toBeVisible();
+	page.once('dialog', (d) => d.accept());
 	await page.getByTestId('share-list').getByRole('button', { name: 'Revoke' }).click();
 	await expect(page.getByTestId('share-list')).toContainText('revoked');
 	const gone = await sheet.goto(url);

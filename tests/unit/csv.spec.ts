@@ -40,3 +40,25 @@ describe('toCsv (OWASP CSV injection)', () => {
 		expect(cells(chart)[1]).toEqual(['-1', '-0.5']);
 	});
 });
+
+describe('the revision export CSV in the point table’s order', () => {
+	test('a pushrod corner: the kind’s points, the spring’s, then the rocker’s, whatever the file’s key order', async () => {
+		const { readFileSync } = await import('node:fs');
+		const corner = JSON.parse(readFileSync('fixtures/single-seater-front-left-pushrod.json', 'utf8'));
+		// the file's keys reversed: the export must not follow them
+		corner.points = Object.fromEntries(Object.entries(corner.points).reverse());
+		const names = cells(pointsCsv(corner)).slice(1).map((r) => r[0]);
+		const { tablePoints } = await import('../../src/lib/kinds');
+		expect(names).toEqual(tablePoints('double_wishbone', true).map((p) => p.name).filter((n) => names.includes(n)));
+		expect(names).toContain('rocker.rod_end');
+		expect(names[0]).toBe('lower.front');
+	});
+});
+
+describe('measure words', () => {
+	test('a change of half-track is "Half-track change", not "… change change"; toe becomes "Toe change"', async () => {
+		const { changeLabel } = await import('../../src/lib/schemas/targets');
+		expect(changeLabel('half_track_change')).toBe('Half-track change');
+		expect(changeLabel('toe')).toBe('Toe change');
+	});
+});

@@ -62,10 +62,16 @@ export function measureWords(m: TargetMeasure) {
 	return { label: WORDS[m][0], unit: WORDS[m][1] };
 }
 
+/** A measure's change from design in words: "Toe change", "Half-track change" (not "… change change"). */
+export function changeLabel(m: TargetMeasure) {
+	const { label } = measureWords(m);
+	return /change$/i.test(label) ? label : `${label} change`;
+}
+
 /** A target in plain words, e.g. "Toe change within ±0.10° over −40…40 mm". */
 export function describeTarget(t: Target) {
 	const { label, unit } = measureWords(t.measure);
 	const d = unit === '°' ? 2 : unit === '' ? 3 : 1;
 	const band = t.min === -t.max ? `within ±${t.max.toFixed(d)}${unit}` : `between ${t.min.toFixed(d)} and ${t.max.toFixed(d)}${unit}`;
-	return `${label}${t.basis === 'change' ? ' change' : ''} ${band} over ${t.from}…${t.to} mm`;
+	return `${t.basis === 'change' ? changeLabel(t.measure) : label} ${band} over ${t.from}…${t.to} mm`;
 }

@@ -1,5 +1,6 @@
 // How a revision is shown through API v1 and exported.
 import { toCsv } from '$lib/csv';
+import { CORNER_KINDS, joinRocker, tablePoints } from '$lib/kinds';
 import type { Corner, Revision } from '$lib/server/db/schema';
 
 /** A revision's metadata and its corner file. */
@@ -21,9 +22,15 @@ export function revisionJson(revision: Revision, corner: Corner) {
 	};
 }
 
-/** The revision's points as CSV: point, x, y, z in mm, ISO 8855 vehicle axes. */
-export function pointsCsv(geometry: { points: Record<string, [number, number, number]> }) {
-	return toCsv([['point', 'x_mm', 'y_mm', 'z_mm'], ...Object.entries(geometry.points).map(([name, [x, y, z]]) => [name, x, y, z])]);
+/**
+ * The revision's points as CSV: point, x, y, z in mm, ISO 8855 vehicle axes, in the point table's order (the kind's
+ * points, the spring's, the rocker's), then any other point the file carries.
+ */
+export function pointsCsv(geometry: { kind?: string; points: Record<string, [number, number, number]>; rocker?: object | null }) {
+	const all = joinRocker(geometry.points, geometry.rocker) as Record<string, [number, number, number]>;
+	const known = geometry.kind && (CORNER_KINDS as readonly string[]).includes(geometry.kind) ? tablePoints(geometry.kind, !!geometry.rocker).map((p) => p.name).filter((n) => all[n]) : [];
+	const order = [...known, ...Object.keys(all).filter((n) => !known.includes(n))];
+	return toCsv([['point', 'x_mm', 'y_mm', 'z_mm'], ...order.map((name) => [name, ...all[name]])]);
 }
 
 /** A file name made of safe characters. */

@@ -211,6 +211,8 @@ export const shareLinks = pgTable(
 		carRevisionId: uuid('car_revision_id').references((): AnyPgColumn => carRevisions.id, { onDelete: 'cascade' }),
 		axle: text('axle', { enum: SHARE_AXLES }),
 		note: text('note').notNull().default(''),
+		/** the address the link was mailed to when it was made (shown in the list of links); null when none */
+		sentTo: text('sent_to'),
 		/** the sheet shows the revision's internal note only when the engineer ticked it for this link */
 		showRevisionNote: boolean('show_revision_note').notNull().default(false),
 		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),

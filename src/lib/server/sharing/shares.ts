@@ -40,7 +40,8 @@ export async function createShare(event: Pick<RequestEvent, 'url'>, target: Shar
 		note: input.note,
 		showRevisionNote: input.showRevisionNote,
 		expiresAt,
-		createdBy: actor.id
+		createdBy: actor.id,
+		sentTo: input.email ?? null
 	});
 	await recordAudit(db, {
 		teamId: target.car.teamId,

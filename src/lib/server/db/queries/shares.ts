@@ -12,6 +12,7 @@ export interface NewShareLink {
 	showRevisionNote: boolean;
 	expiresAt: Date;
 	createdBy: string;
+	sentTo?: string | null;
 }
 
 /** Stores a new revision-scoped link. */
@@ -35,7 +36,7 @@ const LISTED = {
 /** A revision's links, newest first, with the creator's name (never the token). */
 export function sharesOfRevision(db: Database, revisionId: string) {
 	return db
-		.select({ ...LISTED, showRevisionNote: shareLinks.showRevisionNote })
+		.select({ ...LISTED, showRevisionNote: shareLinks.showRevisionNote, sentTo: shareLinks.sentTo })
 		.from(shareLinks)
 		.leftJoin(users, eq(users.id, shareLinks.createdBy))
 		.where(eq(shareLinks.revisionId, revisionId))

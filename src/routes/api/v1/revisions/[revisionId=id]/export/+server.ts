@@ -11,7 +11,7 @@ export const GET = endpoint<RequestEvent>(async (event) => {
 	const { revision, corner, car } = await requireRevision(event, event.params.revisionId, 'view');
 	const { format } = parseQuery(event, query);
 	const base = fileName(car.name, corner.position, `r${revision.number}`);
-	const geometry = revision.geometry as { points: Record<string, [number, number, number]> };
+	const geometry = revision.geometry as { kind?: string; points: Record<string, [number, number, number]>; rocker?: object | null };
 	const [body, type, ext] =
 		format === 'csv'
 			? [pointsCsv(geometry), 'text/csv; charset=utf-8', 'csv']
