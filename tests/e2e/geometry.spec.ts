@@ -91,3 +91,17 @@ test('an old revision opens read only and can start a new one', async ({ page })
 	await expect(page.getByText(/Showing r1 “stock” — the latest is r\d/)).toBeVisible();
 	await page.screenshot({ path: 'test-results/screens/corner-editor.png', fullPage: true });
 });
+
+test('a typing slip is warned about beside the table before anything is saved, in words with the point’s label', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto('/corners/00000000-0000-4000-8000-0000000000f1');
+	await settled(page);
+	await expect(page.getByTestId('plausibility')).toHaveCount(0); // the demo corner has none
+	const y = page.getByLabel('Tie rod, outer joint, y in mm');
+	await y.fill('900'); // 180 mm outboard of the wheel centre
+	await page.keyboard.press('Tab');
+	const box = page.getByTestId('plausibility');
+	await expect(box).toBeVisible();
+	await expect(box.locator('li[data-rule="outside_wheel"]')).toContainText('Tie rod, outer joint (steer.outer) is');
+	await page.screenshot({ path: 'test-results/screens/plausibility.png' });
+});

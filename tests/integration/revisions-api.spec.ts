@@ -198,3 +198,18 @@ describe('counts in the lists', () => {
 		expect(cars.find((c: { id: string }) => c.id === DEMO_CAR_ID).cornerCount).toBe(2);
 	});
 });
+
+describe('plausibility warnings in the API answers (issue 19)', () => {
+	test('a slip is saved with its warning named in words; the revision keeps it when read back; the stock file has none', async () => {
+		const slip = structuredClone(stock);
+		slip.points['steer.outer'][1] = slip.points['wheel.centre'][1] + 180; // a tie-rod joint 180 mm outboard of the wheel
+		const saved = await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label: 'slip', note: '', geometry: slip });
+		expect(saved.status).toBe(201);
+		const body = await saved.json();
+		expect(body.warnings).toEqual([expect.objectContaining({ rule: 'outside_wheel', points: ['steer.outer'], message: expect.stringContaining('Tie rod, outer joint') })]);
+		const read = await (await viewer.fetch(`/api/v1/revisions/${body.id}`)).json();
+		expect(read.warnings.map((w: { rule: string }) => w.rule)).toEqual(['outside_wheel']);
+		const clean = await (await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label: 'stock again', note: '', geometry: stock })).json();
+		expect(clean.warnings).toEqual([]);
+	});
+});

@@ -1,6 +1,9 @@
 // How a revision is shown through API v1 and exported.
 import { toCsv } from '$lib/csv';
 import { CORNER_KINDS, joinRocker, tablePoints } from '$lib/kinds';
+import { plausibility, type PlausibilityWarning } from '$lib/plausibility';
+import { CornerSolver } from '$lib/server/kinematics/index';
+import type { CornerInput } from '$lib/server/kinematics/corner';
 import type { Corner, Revision } from '$lib/server/db/schema';
 
 /** A revision's metadata and its corner file. */
@@ -18,8 +21,25 @@ export function revisionJson(revision: Revision, corner: Corner) {
 		authorId: revision.authorId,
 		createdAt: revision.createdAt,
 		isBaseline: corner.baselineRevisionId === revision.id,
-		geometry: revision.geometry
+		geometry: revision.geometry,
+		warnings: revisionWarnings(revision.geometry)
 	};
+}
+
+/**
+ * The plausibility warnings of a stored corner file (src/lib/plausibility.ts), with the spring's direction from the
+ * solved design position; a file that cannot be solved gets the checks that need no solve.
+ */
+export function revisionWarnings(geometry: unknown): PlausibilityWarning[] {
+	const g = geometry as CornerInput & { tyre?: { loaded_radius: number } };
+	if (!g || typeof g !== 'object' || !g.points) return [];
+	let motionRatio: number | null = null;
+	try {
+		motionRatio = new CornerSolver(g).sweep({ sweep: 'heave', from: 0, to: 0, step: 1 }).samples[0]?.motion_ratio ?? null;
+	} catch {
+		motionRatio = null;
+	}
+	return plausibility(g, motionRatio);
 }
 
 /**

@@ -7,6 +7,7 @@
 // alignment (the datum defines the vehicle frame), before a best fit (the fit targets are the
 // destination corner's own points, already on the mirrored side).
 
+import { plausibility } from '$lib/plausibility';
 import { importOptionsSchema, IMPORT_LIMITS, KNOWN_POINTS, REQUIRED_POINTS_BY_KIND, type ImportOptions } from './options';
 import {
 	checkBytes,
@@ -126,6 +127,8 @@ function run(bytes: Uint8Array, opts: ImportOptions, ctx: ImportContext): Import
 	const { map, alignment } = alignmentMap(keptPts, opts, ctx);
 	const points = outputPoints(keptPts, map, opts);
 	warnings.push(...sideWarnings(points, ctx));
+	// the plausibility checks that need no solve and no tyre (the point table and the API add the others)
+	if (ctx.kind) warnings.push(...plausibility({ kind: ctx.kind, points }).map((w) => w.message));
 	return {
 		points,
 		columns: { ...columns, headers },

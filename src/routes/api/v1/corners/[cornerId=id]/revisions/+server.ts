@@ -1,3 +1,4 @@
+import { revisionWarnings } from '$lib/server/corners/present';
 import { json } from '@sveltejs/kit';
 import { revisionInput } from '$lib/schemas/corner';
 import { endpoint, parseBody } from '$lib/server/api';
@@ -29,5 +30,5 @@ export const POST = endpoint<RequestEvent>(async (event) => {
 		parentId: body.parentId,
 		source: 'api'
 	});
-	return json({ id: revision.id, number: revision.number, supersededBy }, { status: 201 });
+	return json({ id: revision.id, number: revision.number, supersededBy, warnings: revisionWarnings(body.geometry) }, { status: 201 });
 });
