@@ -62,3 +62,24 @@ describe('measure words', () => {
 		expect(changeLabel('toe')).toBe('Toe change');
 	});
 });
+
+describe('the revision export as DXF for CAD', () => {
+	test('read back by a well-known DXF package (dxf-parser): every point at its coordinates, on its group’s layer, with its name', async () => {
+		const { readFileSync } = await import('node:fs');
+		const { default: DxfParser } = await import('dxf-parser');
+		const { pointsDxf } = await import('../../src/lib/server/corners/present');
+		const corner = JSON.parse(readFileSync('fixtures/single-seater-front-left-pushrod.json', 'utf8'));
+		const dxf = new DxfParser().parseSync(pointsDxf(corner))!;
+		const points = dxf.entities.filter((e) => e.type === 'POINT') as unknown as { layer: string; position: { x: number; y: number; z: number } }[];
+		const texts = dxf.entities.filter((e) => e.type === 'TEXT') as unknown as { text: string; startPoint: { x: number; y: number; z: number } }[];
+		const all = { ...corner.points, ...Object.fromEntries(Object.entries(corner.rocker).filter(([k]) => k !== 'rod_on').map(([k, v]) => [`rocker.${k}`, v])) } as Record<string, number[]>;
+		expect(points.length).toBe(Object.keys(all).length);
+		for (const [i, t] of texts.entries()) {
+			const p = all[t.text];
+			expect(p, t.text).toBeDefined();
+			expect([points[i].position.x, points[i].position.y, points[i].position.z]).toEqual(p);
+			expect(points[i].layer).toBe(t.text.split('.')[0].toUpperCase());
+		}
+		expect(Object.keys(dxf.tables.layer.layers)).toContain('LABELS');
+	});
+});

@@ -19,6 +19,8 @@ export interface Series {
 	points: ChartPoint[];
 	/** drawn dashed and translucent (a reference revision) */
 	ghost?: boolean;
+	/** drawn dotted instead (a target: told apart from a dashed reference by its stroke, not its colour alone) */
+	dotted?: boolean;
 	/** any CSS colour; default from the chart palette */
 	colour?: string;
 }

@@ -73,8 +73,8 @@ function svgDocument(c: ChartExport): { text: string; width: number; height: num
 	const font = css.fontFamily;
 	const w = Math.round(svgEl.getBoundingClientRect().width + pad.left + pad.right);
 	const items = [
-		...c.series.map((s, i) => ({ label: s.label, colour: resolveColour(figureEl, c.colours[i]), ghost: !!s.ghost, rect: false })),
-		...(c.band ? [{ label: bandLabel(c.band), colour: resolveColour(figureEl, bandColour(c.band)), ghost: false, rect: true }] : [])
+		...c.series.map((s, i) => ({ label: s.label, colour: resolveColour(figureEl, c.colours[i]), ghost: !!s.ghost, dotted: !!s.dotted, rect: false })),
+		...(c.band ? [{ label: bandLabel(c.band), colour: resolveColour(figureEl, bandColour(c.band)), ghost: false, dotted: false, rect: true }] : [])
 	];
 	// legend entries flow in rows like the on-screen legend (text width estimated at 6.6 px a character)
 	const at: { x: number; y: number }[] = [];
@@ -109,7 +109,7 @@ function svgDocument(c: ChartExport): { text: string; width: number; height: num
 	items.forEach((it, i) => {
 		const { x, y } = at[i];
 		if (it.rect) add('rect', { x, y: y - 5, width: 18, height: 10, fill: it.colour, 'fill-opacity': 0.18, stroke: it.colour, 'stroke-opacity': 0.6 });
-		else add('line', { x1: x, y1: y, x2: x + 18, y2: y, stroke: it.colour, 'stroke-width': 2, 'stroke-dasharray': it.ghost ? '5 4' : 'none', opacity: it.ghost ? 0.7 : 1 });
+		else add('line', { x1: x, y1: y, x2: x + 18, y2: y, stroke: it.colour, 'stroke-width': 2, 'stroke-dasharray': it.dotted ? '0.5 4' : it.ghost ? '5 4' : 'none', 'stroke-linecap': it.dotted ? 'round' : 'butt', opacity: it.ghost ? 0.7 : 1 });
 		add('text', { x: x + 24, y: y + 4, fill: ink, 'font-family': font, 'font-size': 12 }, it.label);
 	});
 	const plot = svgEl.cloneNode(true) as SVGElement;

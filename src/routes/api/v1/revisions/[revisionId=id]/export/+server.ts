@@ -1,12 +1,12 @@
 import { z } from 'zod';
 import { endpoint, parseQuery } from '$lib/server/api';
-import { fileName, pointsCsv } from '$lib/server/corners/present';
+import { fileName, pointsCsv, pointsDxf } from '$lib/server/corners/present';
 import { requireRevision } from '$lib/server/permissions';
 import type { RequestEvent } from './$types';
 
-const query = z.object({ format: z.enum(['geometry', 'csv'], { message: "format must be 'geometry' or 'csv'" }).default('geometry') });
+const query = z.object({ format: z.enum(['geometry', 'csv', 'dxf'], { message: "format must be 'geometry', 'csv' or 'dxf'" }).default('geometry') });
 
-// Downloads a revision as its corner file (corner-geometry/1, importable unchanged) or as CSV.
+// Downloads a revision as its corner file (corner-geometry/1, importable unchanged), as CSV, or as DXF points for CAD.
 export const GET = endpoint<RequestEvent>(async (event) => {
 	const { revision, corner, car } = await requireRevision(event, event.params.revisionId, 'view');
 	const { format } = parseQuery(event, query);
@@ -15,7 +15,9 @@ export const GET = endpoint<RequestEvent>(async (event) => {
 	const [body, type, ext] =
 		format === 'csv'
 			? [pointsCsv(geometry), 'text/csv; charset=utf-8', 'csv']
-			: [JSON.stringify(revision.geometry, null, '\t') + '\n', 'application/json', 'json'];
+			: format === 'dxf'
+				? [pointsDxf(geometry), 'image/vnd.dxf', 'dxf']
+				: [JSON.stringify(revision.geometry, null, '\t') + '\n', 'application/json', 'json'];
 	return new Response(body, {
 		headers: { 'content-type': type, 'content-disposition': `attachment; filename="${base}.${ext}"` }
 	});
