@@ -105,3 +105,20 @@ test('a typing slip is warned about beside the table before anything is saved, i
 	await expect(box.locator('li[data-rule="outside_wheel"]')).toContainText('Tie rod, outer joint (steer.outer) is');
 	await page.screenshot({ path: 'test-results/screens/plausibility.png' });
 });
+
+test('the engineer lowers the car 15 mm at one corner, reads the new static figures and saves the new design position', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto('/corners/00000000-0000-4000-8000-0000000000f2');
+	await settled(page);
+	await page.getByRole('link', { name: 'Ride height' }).click();
+	await expect(page.getByRole('heading', { name: 'Ride height' })).toBeVisible();
+	await settled(page);
+	await expect(page.getByTestId('caution')).toBeVisible();
+	await page.getByLabel('Ride height change (mm)').fill('-15');
+	await page.getByRole('button', { name: 'Show the new design position' }).click();
+	const result = page.getByTestId('ride-height-result');
+	await expect(result).toContainText('lowered 15 mm');
+	await expect(result.locator('tr[data-figure="camber"]')).toBeVisible();
+	await page.getByRole('button', { name: 'Save as new revision' }).click();
+	await expect(page.getByTestId('ride-height-saved')).toContainText(/Saved as r\d+/);
+});

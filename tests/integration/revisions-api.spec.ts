@@ -213,3 +213,28 @@ describe('plausibility warnings in the API answers (issue 19)', () => {
 		expect(clean.warnings).toEqual([]);
 	});
 });
+
+describe('ride height as a new design position (issue 19)', () => {
+	test('lowered 20 mm: the figures are the heave sweep’s at +20 mm; saved, a new revision; 0 and 200 mm refused naming change', async () => {
+		const first = (await (await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label: 'for ride height', note: '', geometry: stock })).json()).id;
+		const res = await engineer.json(`/api/v1/revisions/${first}/ride-height`, 'POST', { change: -20 });
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		const heave = (await (await engineer.fetch(`/api/v1/revisions/${first}/solve?sweep=heave&from=20&to=20&step=1`)).json()).samples[0];
+		for (const k of ['camber', 'toe', 'caster', 'kpi', 'motion_ratio']) expect(body.after[k], k).toBeCloseTo(heave[k], 6);
+		for (const [change, message] of [[0, /must not be 0/], [200, /≤ 100 mm/]] as const) {
+			const bad = await engineer.json(`/api/v1/revisions/${first}/ride-height`, 'POST', { change });
+			expect(bad.status).toBe(400);
+			const { error } = await bad.json();
+			expect(error.field).toBe('change');
+			expect(error.message).toMatch(message);
+		}
+		const refused = await viewer.json(`/api/v1/revisions/${first}/ride-height`, 'POST', { change: -20, save: true });
+		expect(refused.status).toBe(403);
+		const saved = await engineer.json(`/api/v1/revisions/${first}/ride-height`, 'POST', { change: -20, save: true });
+		expect(saved.status).toBe(201);
+		const rev = await (await viewer.fetch(`/api/v1/revisions/${(await saved.json()).id}`)).json();
+		expect(rev.label).toBe('ride height −20 mm');
+		expect(rev.geometry.points['lower.front'][2]).toBeCloseTo(stock.points['lower.front'][2] - 20, 9);
+	});
+});

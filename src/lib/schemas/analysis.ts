@@ -133,3 +133,16 @@ export interface AdoptedTolerances {
 	points: Record<string, { mm: number; mode: 'axis' | 'sphere' }>;
 	updatedAt: string;
 }
+
+/** A ride-height change as a new design position: the body lowered (−) or raised (+) by `change` mm. */
+export const rideHeightInput = z.object({
+	change: z
+		.number({ message: 'must be a number (mm, − = lower)' })
+		.min(-100, 'must be ≥ -100 mm')
+		.max(100, 'must be ≤ 100 mm')
+		.refine((v) => v !== 0, 'must not be 0 (no change)'),
+	/** save the new design position as a revision (needs edit rights); otherwise only the figures are answered */
+	save: z.boolean({ message: 'must be true or false' }).default(false),
+	label: z.string().trim().max(120, 'at most 120 characters').optional(),
+	note: z.string().max(4000, 'at most 4000 characters').default('')
+});
