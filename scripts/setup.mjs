@@ -112,7 +112,7 @@ export function storageEnv(s3Port) {
 }
 
 /** The environment the app server runs with; mail goes to SMTP_HOST:SMTP_PORT, else to the fake server on smtpPort. */
-export function appEnv({ databaseUrl: url, port, smtpPort, s3Port }) {
+export function appEnv({ databaseUrl: url, port, smtpPort, s3Port = 0 }) {
 	return {
 		...(s3Port ? storageEnv(s3Port) : {}),
 		SMTP_HOST: process.env.SMTP_HOST ?? '127.0.0.1',

@@ -157,7 +157,7 @@ class StlParser implements MeshParser {
 			c = c.subarray(take);
 			if (this.headLen < 84 && this.headLen < this.totalBytes) return;
 			this.decide();
-			if (this.mode === 'ascii') {
+			if ((this.mode as string) === 'ascii') {
 				this.ascii!.push(this.head.subarray(0, this.headLen));
 			}
 		}
@@ -249,7 +249,7 @@ class StlParser implements MeshParser {
 		if (this.mode === 'unknown') {
 			if (this.headLen === 0) throw new MeshParseError('the file is empty');
 			this.decide();
-			if (this.mode === 'ascii') this.ascii!.push(this.head.subarray(0, this.headLen));
+			if ((this.mode as string) === 'ascii') this.ascii!.push(this.head.subarray(0, this.headLen));
 		}
 		if (this.mode === 'binary') {
 			if (this.triangles !== this.expected || this.recordLen !== 0)

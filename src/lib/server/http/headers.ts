@@ -1,6 +1,7 @@
 // Security headers on every answer of the app. The pages' Content-Security-Policy comes from kit.csp in
 // svelte.config.js (hashes of the inline scripts); answers without one (API, CSV, redirects) get a deny-all policy.
 import type { RequestEvent } from '@sveltejs/kit';
+import { withStorageConnect } from '$lib/server/scans/origin';
 
 /** Powerful browser features the app never uses, switched off (W3C Permissions Policy). */
 export const PERMISSIONS_POLICY =
@@ -25,6 +26,8 @@ export function withSecurityHeaders(event: RequestEvent, response: Response): Re
 	}
 	const h = res.headers;
 	if (!h.has('content-security-policy')) h.set('content-security-policy', NON_PAGE_CSP);
+	// the corner page uploads scans straight to object storage: its origin joins connect-src there only
+	else if (/^\/corners\/[^/]+\/?$/.test(event.url.pathname)) h.set('content-security-policy', withStorageConnect(h.get('content-security-policy')!));
 	h.set('x-frame-options', 'DENY');
 	if (event.url.pathname.startsWith('/s/')) h.set('referrer-policy', 'no-referrer');
 	else if (!h.has('referrer-policy')) h.set('referrer-policy', referrerPolicy(event));

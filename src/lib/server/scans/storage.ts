@@ -64,14 +64,6 @@ const s3 = () => (server ??= clientOf(storageConfig()));
 const s3Browser = () => (browser ??= clientOf(storageConfig(), true));
 const Bucket = () => storageConfig().bucket;
 
-/** The origin the browser uploads to (for the pages' connect-src), or null for the service's default endpoint. */
-export function browserOrigin(): string | null {
-	const c = storageConfig();
-	const url = c.publicEndpoint ?? c.endpoint;
-	if (!url) return null;
-	return new URL(url).origin;
-}
-
 /** Starts a multipart upload of one object; returns its upload id. */
 export async function startUpload(key: string, contentType: string): Promise<string> {
 	const out = await s3().send(new CreateMultipartUploadCommand({ Bucket: Bucket(), Key: key, ContentType: contentType }));
