@@ -115,6 +115,8 @@ export function storageEnv(s3Port) {
 export function appEnv({ databaseUrl: url, port, smtpPort, s3Port = 0 }) {
 	return {
 		...(s3Port ? storageEnv(s3Port) : {}),
+		// the AWS SDK warns on every start that its releases from 2027 need Node 22; the project is on Node 20 with a locked SDK
+		AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ?? 'true',
 		SMTP_HOST: process.env.SMTP_HOST ?? '127.0.0.1',
 		SMTP_PORT: process.env.SMTP_HOST ? (process.env.SMTP_PORT ?? '587') : String(smtpPort),
 		LW_MAILBOX_DIR: mailboxDir(smtpPort),

@@ -115,3 +115,28 @@ export function obj(tris: Tri[], relative = false): Uint8Array {
 	for (const f of faces) lines.push('f ' + f.map((i) => (relative ? `${i - verts.length}` : `${i + 1}/${i + 1}`)).join(' '));
 	return new TextEncoder().encode(lines.join('\n') + '\n');
 }
+
+/** A rotation about z by a, then about x by b (radians), row-major. */
+export function rotation(a: number, b: number): number[][] {
+	const [ca, sa, cb, sb] = [Math.cos(a), Math.sin(a), Math.cos(b), Math.sin(b)];
+	const Rz = [[ca, -sa, 0], [sa, ca, 0], [0, 0, 1]];
+	const Rx = [[1, 0, 0], [0, cb, -sb], [0, sb, cb]];
+	return Rx.map((row) => [0, 1, 2].map((j) => row[0] * Rz[0][j] + row[1] * Rz[1][j] + row[2] * Rz[2][j]));
+}
+
+/**
+ * A corner's scan made here: tooling balls (radius 12 mm) on datum points and a ball joint (radius 15 mm) at
+ * another point, in a scanner's own axes and in metres: file = R0ᵀ (p − t0) / 1000 for a vehicle point p (mm).
+ * Aligning by the three datums must give back vehicle = R0 (1000 file) + t0.
+ */
+export const SCAN_FRAME = { R0: rotation(0.5, 0.17), t0: [1500, -200, 50] };
+
+export function toScanFile(p: number[]): number[] {
+	const { R0, t0 } = SCAN_FRAME;
+	const d = [p[0] - t0[0], p[1] - t0[1], p[2] - t0[2]];
+	return [0, 1, 2].map((j) => (R0[0][j] * d[0] + R0[1][j] * d[1] + R0[2][j] * d[2]) / 1000);
+}
+
+export function cornerScan(balls: { at: number[]; radius: number }[], detail = { lat: 16, lon: 24 }): Tri[] {
+	return balls.flatMap((b) => sphereTriangles(b.at, b.radius, detail.lat, detail.lon).map((t) => t.map(toScanFile) as Tri));
+}
