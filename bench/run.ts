@@ -19,7 +19,8 @@ const BENCHES: [string, () => Promise<Bench>][] = [
 	['workspace', () => import('./workspace')],
 	['car-page', () => import('./car-page')],
 	['sharing', () => import('./sharing')],
-	['share-load', () => import('./share-load')]
+	['share-load', () => import('./share-load')],
+	['scan', () => import('./scan')]
 ];
 
 /** Parts that drive the built app in Chromium against the test database. */
@@ -29,7 +30,7 @@ const IN_BROWSER = ['workspace', 'car-page', 'sharing'];
 const wanted = process.argv.slice(2);
 const parts = BENCHES.filter(([n]) => wanted.length === 0 || wanted.includes(n));
 // The same set-up as `npm test` for the parts that need it: Debian's Chromium, the build and the test database.
-if (parts.some(([n]) => IN_BROWSER.includes(n))) {
+if (parts.some(([n]) => IN_BROWSER.includes(n) || n === 'scan')) {
 	ensureChromium();
 	ensureBuild();
 	prepareDatabase({ test: true });
