@@ -92,7 +92,7 @@ export async function run() {
 		const lane = async () => {
 			while (next < start.parts.length) {
 				const i = next++;
-				const res = await fetch(start.parts[i].url, { method: 'PUT', body: bytes.subarray(i * start.partSize, (i + 1) * start.partSize) });
+				const res = await fetch(start.parts[i].url, { method: 'PUT', body: bytes.slice(i * start.partSize, (i + 1) * start.partSize) });
 				if (res.status !== 200) throw new Error(`part ${i + 1}: ${res.status}`);
 				etags[i] = res.headers.get('etag')!;
 			}

@@ -81,4 +81,10 @@ test('an engineer uploads a scan, aligns it by three datums, fits the ball joint
 	cells.forEach((c, i) => expect(Math.abs(Number(c) - moved[i])).toBeLessThan(0.05));
 	await expect(page.locator('tr[data-point="lower.front"]').getByTestId('point-source')).toHaveText('entered');
 	await page.screenshot({ path: 'test-results/scan-revision.png', fullPage: true });
+
+	// the fabricator's sheet says the same
+	const revisionId = new URL(page.url()).pathname.split('/').pop();
+	const share = await (await page.request.post(`/api/v1/revisions/${revisionId}/shares`, { data: { note: '' } })).json();
+	await page.goto(new URL(share.url).pathname);
+	await expect(page.locator('tr[data-point="lower.outer"]').getByTestId('point-source')).toContainText('scan front-left-scan.stl · sphere fit');
 });

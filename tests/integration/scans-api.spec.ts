@@ -44,7 +44,7 @@ async function upload(bytes: Uint8Array, name: string, stopAfter?: number) {
 	for (const [i, part] of start.parts.entries()) {
 		if (stopAfter !== undefined && i >= stopAfter) break;
 		// a browser's PUT: the page's origin, no credentials but the URL's signature
-		const put = await fetch(part.url, { method: 'PUT', body: bytes.subarray(i * start.partSize, (i + 1) * start.partSize), headers: { origin: 'http://127.0.0.1:3000' } });
+		const put = await fetch(part.url, { method: 'PUT', body: Buffer.from(bytes.subarray(i * start.partSize, (i + 1) * start.partSize)), headers: { origin: 'http://127.0.0.1:3000' } });
 		expect(put.status).toBe(200);
 		expect(put.headers.get('access-control-expose-headers')).toMatch(/ETag/i);
 		etags.push(put.headers.get('etag')!);
@@ -169,7 +169,7 @@ describe('bad input stores nothing', () => {
 		expect((await engineer.fetch(`/api/v1/scans/${start.scan.id}/cancel`, { method: 'POST' })).status).toBe(204);
 		expect(await row(start.scan.id)).toBeNull();
 		// the upload no longer exists: a late part is refused (S3 NoSuchUpload, 404)
-		const late = await fetch(start.parts[1].url, { method: 'PUT', body: bytes.subarray(start.partSize, 2 * start.partSize) });
+		const late = await fetch(start.parts[1].url, { method: 'PUT', body: Buffer.from(bytes.subarray(start.partSize, 2 * start.partSize)) });
 		expect(late.status).toBe(404);
 	});
 
