@@ -91,7 +91,8 @@ export async function completeScan(scan: Scan, parts: { partNumber: number; etag
 	}
 	const row = await moveScan(db, scan.id, ['uploading'], { status: 'processing', uploadId: null });
 	if (!row) refuse('status', 'the scan is no longer uploading', 'conflict');
-	void processScan(row);
+	// not awaited: the client polls; a failure here is logged, and the sweeper fails the row if it stays processing
+	processScan(row).catch((e) => console.error(`[scans] processing ${row.id} failed:`, e));
 	return scanView(row);
 }
 
