@@ -24,13 +24,13 @@ const BENCHES: [string, () => Promise<Bench>][] = [
 ];
 
 /** Parts that drive the built app in Chromium against the test database. */
-const IN_BROWSER = ['workspace', 'car-page', 'sharing'];
+const IN_BROWSER = ['workspace', 'car-page', 'sharing', 'scan'];
 
 // `npm run bench -- workspace sharing` runs the named parts only.
 const wanted = process.argv.slice(2);
 const parts = BENCHES.filter(([n]) => wanted.length === 0 || wanted.includes(n));
 // The same set-up as `npm test` for the parts that need it: Debian's Chromium, the build and the test database.
-if (parts.some(([n]) => IN_BROWSER.includes(n) || n === 'scan')) {
+if (parts.some(([n]) => IN_BROWSER.includes(n))) {
 	ensureChromium();
 	ensureBuild();
 	prepareDatabase({ test: true });

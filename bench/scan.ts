@@ -1,10 +1,13 @@
 // Scans (issue 17): a 2-million-triangle binary STL (about 100 MB, a finely tessellated sphere made here) uploaded
 // over loopback through presigned multipart part URLs to the local S3-compatible fake, as the browser does (three
 // parts at a time), then processed by the built app's worker (parse, counts, bounds, preview with meshoptimizer);
-// the preview's size; and picks on the preview with three-mesh-bvh (rays from random directions, as clicks) in this
-// process. Prints each figure beside the issue's target; asserts nothing.
+// the preview's size; picks on the preview with three-mesh-bvh (rays from random directions, as clicks) in this
+// process; and the scan's page opened in Chromium until its 3-D view has drawn. Prints each figure beside the issue's
+// target; asserts nothing.
 import os from 'node:os';
+import { chromium } from '@playwright/test';
 import { randomUUID } from 'node:crypto';
+import { readFileSync } from 'node:fs';
 import { BufferAttribute, BufferGeometry, Mesh, MeshBasicMaterial, Raycaster, Vector3 } from 'three';
 import { acceleratedRaycast, computeBoundsTree } from 'three-mesh-bvh';
 import { databaseUrl, testDatabase } from '../scripts/db.mjs';
@@ -21,6 +24,28 @@ const TARGET_UPLOAD_AND_PROCESSING_S = 15;
 const TARGET_PREVIEW_MB = 5;
 const TARGET_PICK_P95_MS = 16;
 const PICKS = 2000;
+const TARGET_INTERACTIVE_S = 3;
+
+/** Seconds from navigating to the scan's page until its 3-D view is ready and has drawn a frame, in Chromium (3 openings). */
+async function openInBrowser(base: string, cookie: string, scanId: string) {
+	const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking'] });
+	try {
+		const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+		await context.addCookies(cookie.split('; ').map((pair) => ({ name: pair.split('=')[0], value: pair.slice(pair.indexOf('=') + 1), url: base })));
+		const page = await context.newPage();
+		const times: number[] = [];
+		for (let i = 0; i < 3; i++) {
+			const t0 = performance.now();
+			await page.goto(`${base}/scans/${scanId}`);
+			await page.locator('[data-testid="scan-canvas"][data-ready="true"]').waitFor({ timeout: 60_000 });
+			await page.evaluate(() => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r))));
+			times.push((performance.now() - t0) / 1000);
+		}
+		return times;
+	} finally {
+		await browser.close();
+	}
+}
 
 /** A UV sphere of radius 300 mm about (0, 700, 300) with n × m quads as a binary STL (84 + 50 bytes a triangle). */
 function sphereStl(n: number, m: number): Uint8Array {
@@ -65,7 +90,8 @@ async function engineer(base: string) {
 	};
 	const car = await (await call('/api/v1/cars', 'POST', { name: `Scan bench ${Date.now()}` })).json();
 	const corner = await (await call(`/api/v1/cars/${car.id}/corners`, 'POST', { position: 'front_left', kind: 'double_wishbone' })).json();
-	return { call, carId: car.id as string, cornerId: corner.id as string };
+	await call(`/api/v1/corners/${corner.id}/revisions`, 'POST', { label: 'bench', note: '', geometry: JSON.parse(readFileSync('fixtures/club-fwd-front-left.json', 'utf8')) });
+	return { call, cookie, carId: car.id as string, cornerId: corner.id as string };
 }
 
 /** Prints the figures (`npm run bench -- scan`): the built app on LW_TEST_PORT+80 with the fake object storage. */
@@ -78,7 +104,7 @@ export async function run() {
 	const server = startTestServer(port);
 	try {
 		await waitForHttp(`${base}/signin`);
-		const { call, carId, cornerId } = await engineer(base);
+		const { call, cookie, carId, cornerId } = await engineer(base);
 		const t0 = performance.now();
 		const bytes = sphereStl(1000, 1001);
 		const made = performance.now() - t0;
@@ -123,7 +149,7 @@ export async function run() {
 		(geometry as unknown as { computeBoundsTree: typeof computeBoundsTree }).computeBoundsTree = computeBoundsTree;
 		(geometry as unknown as { computeBoundsTree: () => void }).computeBoundsTree();
 		const opened = performance.now() - o0;
-		console.log(`  preview download + decode + BVH build (Node, no rendering)         ${opened.toFixed(0)} ms  (the view's target: interactive ≤ 3 s; WebGL upload and first frame not measured here)`);
+		console.log(`  preview download + decode + BVH build (Node, no rendering)         ${opened.toFixed(0)} ms  (part of opening the view; the browser figure below is the whole)`);
 		const target = new Mesh(geometry, new MeshBasicMaterial());
 		target.raycast = acceleratedRaycast;
 		const ray = new Raycaster();
@@ -144,6 +170,9 @@ export async function run() {
 		times.sort((a, b) => a - b);
 		const p95 = percentile(times, 95);
 		console.log(`  pick (three-mesh-bvh raycast, ${PICKS} rays, ${hits} hits)  p50 ${percentile(times, 50).toFixed(3)} ms  p95 ${p95.toFixed(3)} ms  (target ≤ ${TARGET_PICK_P95_MS} ms) → ${p95 <= TARGET_PICK_P95_MS ? 'within target' : 'OVER target'}`);
+		const opens = await openInBrowser(base, cookie, start.scan.id);
+		const warm = Math.max(...opens.slice(1));
+		console.log(`  scan page opened in Chromium until the 3-D view has drawn (software WebGL, no GPU): ${opens.map((t) => t.toFixed(2)).join(' s, ')} s (first cold)  (target ≤ ${TARGET_INTERACTIVE_S} s) → ${opens[0] <= TARGET_INTERACTIVE_S ? 'within target' : warm <= TARGET_INTERACTIVE_S ? 'within target warm, OVER cold' : 'OVER target'}`);
 		await call(`/api/v1/scans/${start.scan.id}`, 'DELETE');
 	} finally {
 		server.kill('SIGKILL');
