@@ -71,7 +71,7 @@ test('an engineer uploads a scan, aligns it by three datums, fits the ball joint
 	await expect(page.getByTestId('fit-result')).toContainText('radius 15.00 mm');
 	await page.screenshot({ path: 'test-results/scan-view.png', fullPage: true });
 	await page.getByLabel('Point to assign').selectOption({ label: 'Lower ball joint' });
-	await page.getByRole('button', { name: 'Assign' }).click();
+	await page.getByRole('button', { name: 'Assign', exact: true }).click();
 	await page.getByRole('button', { name: 'Save as a new revision' }).click();
 	await page.getByRole('status').getByRole('link', { name: 'r2' }).click();
 
@@ -87,4 +87,35 @@ test('an engineer uploads a scan, aligns it by three datums, fits the ball joint
 	const share = await (await page.request.post(`/api/v1/revisions/${revisionId}/shares`, { data: { note: '' } })).json();
 	await page.goto(new URL(share.url).pathname);
 	await expect(page.locator('tr[data-point="lower.outer"]').getByTestId('point-source')).toContainText('scan front-left-scan.stl · sphere fit');
+});
+
+test('from the car page a scan is uploaded for a chosen corner; a cancelled upload leaves nothing', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	const car = await (await page.request.post('/api/v1/cars', { data: { name: `Scan car page ${Date.now()}` } })).json();
+	await page.request.post(`/api/v1/cars/${car.id}/corners`, { data: { position: 'front_left', kind: 'double_wishbone' } });
+	await page.goto(`/cars/${car.id}`);
+	await settled(page);
+	const file = { name: 'slow.stl', mimeType: 'model/stl', buffer: Buffer.from(binaryStl(cornerScan([{ at: [0, 0, 0], radius: 20 }]))) };
+	// no corner chosen: the panel says which field is missing and sends nothing
+	await page.getByLabel('Scan file').setInputFiles(file);
+	await page.getByRole('button', { name: 'Upload scan' }).click();
+	await expect(page.getByRole('alert')).toHaveText('corner: choose the corner the scan is of');
+	// the part's PUT to object storage is held back, so the upload can be cancelled half-way
+	await page.route(/\/linkwright-scans\//, async (route) => {
+		await new Promise((r) => setTimeout(r, 3000));
+		await route.continue().catch(() => undefined);
+	});
+	await page.getByLabel('Corner of the scan').selectOption({ label: 'Front left' });
+	await page.getByLabel('Scan file').setInputFiles(file);
+	await page.getByRole('button', { name: 'Upload scan' }).click();
+	await page.getByRole('button', { name: 'Cancel upload' }).click();
+	await expect(page.getByRole('alert')).toHaveText('Upload cancelled; nothing was kept.');
+	const listed = await (await page.request.get(`/api/v1/cars/${car.id}/scans`)).json();
+	expect(listed.scans).toEqual([]);
+	await page.unroute(/\/linkwright-scans\//);
+	// then a real one, listed with its corner
+	await page.getByLabel('Scan file').setInputFiles({ ...file, name: 'ok.stl' });
+	await page.getByRole('button', { name: 'Upload scan' }).click();
+	await expect(page.locator('[data-scan="ok.stl"]').getByTestId('scan-status')).toHaveText('ready', { timeout: 60_000 });
+	await expect(page.locator('[data-scan="ok.stl"]')).toContainText('Front left');
 });

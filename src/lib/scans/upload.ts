@@ -23,6 +23,8 @@ async function messageOf(res: Response) {
 /** PUTs one part; resolves to its ETag. */
 function putPart(url: string, blob: Blob, onProgress: (loaded: number) => void, signal: AbortSignal): Promise<string> {
 	return new Promise((resolve, reject) => {
+		// cancelled before this part started (even before the upload itself had started)
+		if (signal.aborted) return reject(new DOMException('cancelled', 'AbortError'));
 		const xhr = new XMLHttpRequest();
 		xhr.open('PUT', url);
 		xhr.upload.onprogress = (e) => onProgress(e.loaded);
@@ -78,5 +80,6 @@ export async function uploadScan(
 		body: JSON.stringify({ parts: etags.map((etag, i) => ({ partNumber: i + 1, etag })) })
 	});
 	if (!done.ok) throw new UploadError(await messageOf(done));
+	// a cancel that came while the upload was being completed: the scan is kept (it is whole); the page lists it
 	return id;
 }

@@ -26,8 +26,8 @@ export function withSecurityHeaders(event: RequestEvent, response: Response): Re
 	}
 	const h = res.headers;
 	if (!h.has('content-security-policy')) h.set('content-security-policy', NON_PAGE_CSP);
-	// the corner page uploads scans straight to object storage: its origin joins connect-src there only
-	else if (/^\/corners\/[^/]+\/?$/.test(event.url.pathname)) h.set('content-security-policy', withStorageConnect(h.get('content-security-policy')!));
+	// the corner and car pages upload scans straight to object storage: its origin joins connect-src there only
+	else if (/^\/(corners|cars)\/[^/]+\/?$/.test(event.url.pathname)) h.set('content-security-policy', withStorageConnect(h.get('content-security-policy')!));
 	h.set('x-frame-options', 'DENY');
 	if (event.url.pathname.startsWith('/s/')) h.set('referrer-policy', 'no-referrer');
 	else if (!h.has('referrer-policy')) h.set('referrer-policy', referrerPolicy(event));
