@@ -19,11 +19,12 @@ const BENCHES: [string, () => Promise<Bench>][] = [
 	['workspace', () => import('./workspace')],
 	['car-page', () => import('./car-page')],
 	['sharing', () => import('./sharing')],
-	['share-load', () => import('./share-load')]
+	['share-load', () => import('./share-load')],
+	['scan', () => import('./scan')]
 ];
 
 /** Parts that drive the built app in Chromium against the test database. */
-const IN_BROWSER = ['workspace', 'car-page', 'sharing'];
+const IN_BROWSER = ['workspace', 'car-page', 'sharing', 'scan'];
 /** Parts that drive the built app over HTTP against the test database (no browser). */
 const OVER_HTTP = ['share-load'];
 

@@ -95,9 +95,28 @@ export function ensureBuild() {
 	fs.writeFileSync(stamp, new Date().toISOString());
 }
 
-/** The environment the app server runs with; mail goes to SMTP_HOST:SMTP_PORT, else to the fake server on smtpPort. */
-export function appEnv({ databaseUrl: url, port, smtpPort }) {
+/**
+ * The object storage settings: S3_ENDPOINT and the others from the environment when it is set (a real S3-compatible
+ * service), else the local fake on 127.0.0.1:s3Port with its one key pair and path-style addressing.
+ */
+export function storageEnv(s3Port) {
+	if (process.env.S3_ENDPOINT) return {};
 	return {
+		S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
+		S3_BUCKET: process.env.S3_BUCKET ?? 'linkwright-scans',
+		S3_REGION: process.env.S3_REGION ?? 'us-east-1',
+		S3_ACCESS_KEY_ID: 'S3RVER',
+		S3_SECRET_ACCESS_KEY: 'S3RVER',
+		S3_FORCE_PATH_STYLE: 'true'
+	};
+}
+
+/** The environment the app server runs with; mail goes to SMTP_HOST:SMTP_PORT, else to the fake server on smtpPort. */
+export function appEnv({ databaseUrl: url, port, smtpPort, s3Port = 0 }) {
+	return {
+		...(s3Port ? storageEnv(s3Port) : {}),
+		// the AWS SDK warns on every start that its releases from 2027 need Node 22; the project is on Node 20 with a locked SDK
+		AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED: process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ?? 'true',
 		SMTP_HOST: process.env.SMTP_HOST ?? '127.0.0.1',
 		SMTP_PORT: process.env.SMTP_HOST ? (process.env.SMTP_PORT ?? '587') : String(smtpPort),
 		LW_MAILBOX_DIR: mailboxDir(smtpPort),

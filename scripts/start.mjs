@@ -1,18 +1,21 @@
 #!/usr/bin/env node
 // `npm start`: everything a fresh machine needs, then the app on http://127.0.0.1:3000 (PORT overrides).
 // This process owns what it starts: the fake SMTP server runs inside it, and the app is its child on an IPC
-// channel, so the app ends when this process ends, even by `kill -9` (the channel closes). This process in turn
-// ends when its own parent (npm) goes. SIGINT/SIGTERM stop the app gracefully (it finishes requests in flight and
-// closes its pool within 5 s), then the mail server, then this process.
+// channel, so the app ends when this process ends, even by `kill -9` (the channel closes). The fake object storage
+// runs inside this process too. This process in turn ends when its own parent (npm) goes. SIGINT/SIGTERM stop the app
+// gracefully (it finishes requests in flight and closes its pool within 5 s), then the mail server and the object
+// storage, then this process.
 import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import { root } from './db.mjs';
 import { smtpPort } from './mail-server.mjs';
+import { s3Port } from './object-store.mjs';
 import { portFree, portInUseMessage } from './ports.mjs';
 import { appEnv, ensureBuild, ensurePackages, prepareDatabase, say } from './setup.mjs';
 
 const port = Number(process.env.PORT ?? 3000);
 const fakeMail = !process.env.SMTP_HOST;
+const fakeStorage = !process.env.S3_ENDPOINT;
 
 /** Stops with a plain message when a port we need is taken. */
 async function needPort(p, what, variable) {
@@ -23,18 +26,26 @@ async function needPort(p, what, variable) {
 
 await needPort(port, 'the app', 'PORT');
 if (fakeMail) await needPort(smtpPort, 'the fake SMTP server', 'LW_SMTP_PORT');
+if (fakeStorage) await needPort(s3Port, 'the fake object storage', 'LW_S3_PORT');
 ensurePackages();
 const databaseUrl = process.env.DATABASE_URL ?? prepareDatabase();
 ensureBuild();
 // checked again: the set-up can take a while
 await needPort(port, 'the app', 'PORT');
-const env = { ...process.env, ...appEnv({ databaseUrl, port, smtpPort }) };
+const env = { ...process.env, ...appEnv({ databaseUrl, port, smtpPort, s3Port }) };
 // With no real SMTP server configured, mail goes to the local fake one (read it at /dev/mail in demo mode).
 let mail = null;
 if (fakeMail) {
 	const { startMailServer } = await import('./mail-server.mjs');
 	mail = await startMailServer({ port: smtpPort });
 	say(`fake SMTP server on 127.0.0.1:${mail.port}; messages kept in ${mail.dir}`);
+}
+// With no S3_ENDPOINT configured, scans go to the local fake object storage (s3rver) in the data folder.
+let storage = null;
+if (fakeStorage) {
+	const { startObjectStore } = await import('./object-store.mjs');
+	storage = await startObjectStore({ port: s3Port });
+	say(`fake object storage on ${storage.endpoint} (bucket ${storage.bucket}); objects kept in ${storage.dir}`);
 }
 say(`Linkwright on http://127.0.0.1:${port}  (demo accounts in README.md; Ctrl-C stops the app, \`npm run db stop\` stops PostgreSQL)`);
 const app = spawn(process.execPath, ['scripts/serve.mjs'], { cwd: root, env, stdio: ['inherit', 'inherit', 'inherit', 'ipc'] });
@@ -68,5 +79,6 @@ setInterval(() => {
 }, 1000).unref();
 app.on('exit', async (code, signal) => {
 	await mail?.close();
+	await storage?.close();
 	process.exit(code ?? (signal ? 1 : 0));
 });

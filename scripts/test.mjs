@@ -6,7 +6,9 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { databaseUrl, root, testDatabase } from './db.mjs';
 import { ensureBuild, ensureChromium, ensurePackages, prepareDatabase, say, waitForHttp } from './setup.mjs';
-import { startTestMailServer, startTestServer, testSmtpPort } from './test-server.mjs';
+import { storageEnv } from './setup.mjs';
+import { startTestMailServer, startTestObjectStore, startTestServer, testSmtpPort } from './test-server.mjs';
+import { testS3Port } from './object-store.mjs';
 
 ensurePackages();
 ensureChromium();
@@ -17,6 +19,8 @@ const port = Number(process.env.LW_TEST_PORT ?? 3100);
 const baseUrl = `http://127.0.0.1:${port}`;
 const mail = await startTestMailServer();
 say(`fake SMTP server on 127.0.0.1:${mail.port}`);
+const storage = await startTestObjectStore();
+if (storage) say(`fake object storage on ${storage.endpoint}`);
 const server = startTestServer(port);
 process.on('exit', () => server.kill('SIGKILL'));
 await waitForHttp(`${baseUrl}/signin`);
@@ -28,7 +32,11 @@ const env = {
 	LW_TEST_BASE_URL: baseUrl,
 	TEST_DATABASE_URL: databaseUrl(testDatabase),
 	LW_SMTP_PORT: String(testSmtpPort),
-	LW_MAILBOX_DIR: mail.dir
+	LW_MAILBOX_DIR: mail.dir,
+	// the tests read and check the bucket through the same settings as the app
+	LW_S3_PORT: String(testS3Port),
+	...storageEnv(testS3Port),
+	...(storage ? { LW_S3_DIR: storage.dir } : {})
 };
 
 /**

@@ -8,11 +8,15 @@ import { fileURLToPath } from 'node:url';
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 export const WORKER_ENTRY = path.join(root, 'src/lib/server/studies/tolerance-worker.ts');
 export const WORKER_MODULE_ID = 'virtual:lw-tolerance-worker';
+// The scan processing worker (issue 17): parse, count, bounds, simplified preview.
+export const SCAN_WORKER_ENTRY = path.join(root, 'src/lib/server/scans/scan-worker.ts');
+export const SCAN_WORKER_MODULE_ID = 'virtual:lw-scan-worker';
+const ENTRIES = { [WORKER_MODULE_ID]: WORKER_ENTRY, [SCAN_WORKER_MODULE_ID]: SCAN_WORKER_ENTRY };
 
-/** The bundled worker code and the files it was built from. */
-export async function bundleWorker() {
+/** The bundled worker code (the tolerance study's unless another entry is given) and the files it was built from. */
+export async function bundleWorker(entry = WORKER_ENTRY) {
 	const result = await build({
-		entryPoints: [WORKER_ENTRY],
+		entryPoints: [entry],
 		bundle: true,
 		platform: 'node',
 		format: 'cjs',
@@ -24,17 +28,17 @@ export async function bundleWorker() {
 	return { code: result.outputFiles[0].text, inputs: Object.keys(result.metafile.inputs).map((f) => path.resolve(root, f)) };
 }
 
-/** A Vite plugin serving the bundled worker code as the default export of `virtual:lw-tolerance-worker`. */
+/** A Vite plugin serving each bundled worker's code as the default export of its virtual module. */
 export function workerPlugin() {
-	const resolved = '\0' + WORKER_MODULE_ID;
 	return {
 		name: 'lw-tolerance-worker',
 		resolveId(id) {
-			return id === WORKER_MODULE_ID ? resolved : null;
+			return id in ENTRIES ? '\0' + id : null;
 		},
 		async load(id) {
-			if (id !== resolved) return null;
-			const { code, inputs } = await bundleWorker();
+			const entry = id.startsWith('\0') ? ENTRIES[id.slice(1)] : undefined;
+			if (!entry) return null;
+			const { code, inputs } = await bundleWorker(entry);
 			for (const f of inputs) this.addWatchFile(f);
 			return `export default ${JSON.stringify(code)};`;
 		}

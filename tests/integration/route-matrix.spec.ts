@@ -12,7 +12,9 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { hashToken, newToken } from '../../src/lib/server/auth/tokens';
 import { createAxleShareLink, createShareLink } from '../../src/lib/server/db/queries/shares';
 import { createApiToken } from '../../src/lib/server/db/queries/users';
-import { revisions, studies, users } from '../../src/lib/server/db/schema';
+import { PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { encodePreview } from '../../src/lib/mesh/preview';
+import { revisions, scans, studies, users } from '../../src/lib/server/db/schema';
 import { Client, DEMO_CAR_ID, DEMO_TEAM_ID, baseUrl, closeDb, freshAccount, testDb } from './helpers';
 
 const FRONT_LEFT = '00000000-0000-4000-8000-0000000000f1';
@@ -97,6 +99,18 @@ const TABLE: Record<string, string> = {
 	'GET /api/v1/revisions/[revisionId=id]/solve': TEAM_VIEW,
 	'POST /api/v1/revisions/[revisionId=id]/tolerance-study': TEAM_VIEW,
 	'DELETE /api/v1/shares/[shareId=id]': TEAM_SHARE,
+	// scans: team data under the revisions' rules (each request gets a fresh scan, since DELETE removes it)
+	'GET /api/v1/cars/[carId=id]/scans': TEAM_VIEW,
+	'POST /api/v1/cars/[carId=id]/scans': TEAM_EDIT,
+	'GET /api/v1/scans/[scanId=id]': TEAM_VIEW,
+	'DELETE /api/v1/scans/[scanId=id]': TEAM_EDIT,
+	'POST /api/v1/scans/[scanId=id]/complete': TEAM_EDIT,
+	// no body: allowed callers get 400 (the scan is ready, not uploading)
+	'POST /api/v1/scans/[scanId=id]/cancel': TEAM_EDIT,
+	'GET /api/v1/scans/[scanId=id]/preview': TEAM_VIEW,
+	'PUT /api/v1/scans/[scanId=id]/alignment': TEAM_EDIT,
+	'POST /api/v1/scans/[scanId=id]/capture': TEAM_EDIT,
+	'GET /scans/[scanId=id]': TEAM_VIEW,
 	'POST /api/v1/solve': SIGNED_IN,
 	'GET /cars/[carId=id]': TEAM_VIEW,
 	'POST /cars/[carId=id] ?/addTarget': TEAM_EDIT,
@@ -242,6 +256,18 @@ describe('route × role', () => {
 		return link.id;
 	}
 
+	/** A fresh ready scan of the demo car's front left with a one-triangle preview in the bucket (the local fake). */
+	async function freshScanId() {
+		const id = crypto.randomUUID();
+		const objectKey = `teams/${DEMO_TEAM_ID}/scans/${id}/original.stl`;
+		const previewKey = `${objectKey}.preview.lwpv`;
+		const s3 = new S3Client({ endpoint: process.env.S3_ENDPOINT, region: process.env.S3_REGION ?? 'us-east-1', forcePathStyle: true, credentials: { accessKeyId: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER', secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER' } });
+		const body = encodePreview({ positions: new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0]), indices: new Uint32Array([0, 1, 2]), bounds: { min: [0, 0, 0], max: [1, 1, 0] } });
+		await s3.send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET ?? 'linkwright-scans', Key: previewKey, Body: body }));
+		await testDb().insert(scans).values({ id, carId: DEMO_CAR_ID, cornerId: FRONT_LEFT, name: 'matrix.stl', format: 'stl', sizeBytes: 84, objectKey, previewKey, status: 'ready', unit: 'mm', stats: { triangles: 1 } });
+		return id;
+	}
+
 	/** The concrete path of a route id with the demo team's objects. */
 	async function concrete(routeId: string) {
 		const values: Record<string, string | (() => Promise<string>)> = {
@@ -252,6 +278,7 @@ describe('route × role', () => {
 			'[revisionId=id]': ids.revisionId,
 			'[studyId=id]': ids.studyId,
 			'[shareId=id]': freshShareId,
+			'[scanId=id]': freshScanId,
 			'[messageId]': 'no-such-message',
 			'[token=token]': routeId.startsWith('/s/axle/') ? ids.axleShareToken : routeId.startsWith('/s/') ? ids.shareToken : newToken()
 		};

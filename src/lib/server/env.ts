@@ -21,7 +21,16 @@ const schema = z.object({
 	SMTP_PASS: z.string().optional(),
 	MAIL_FROM: z.string().min(3).default('Linkwright <no-reply@linkwright.test>'),
 	// The fake SMTP server's folder, read by the mailbox page in development and demo mode.
-	LW_MAILBOX_DIR: z.string().optional()
+	LW_MAILBOX_DIR: z.string().optional(),
+	// Object storage for scans (any S3-compatible service). `npm start`, `npm run dev` and `npm test` point these at
+	// the local fake (scripts/object-store.mjs) unless S3_ENDPOINT is set.
+	S3_ENDPOINT: z.string().url({ message: 'S3_ENDPOINT must be a URL, e.g. https://s3.eu-central-1.example.test' }).optional(),
+	S3_PUBLIC_ENDPOINT: z.string().url({ message: 'S3_PUBLIC_ENDPOINT must be a URL' }).optional(),
+	S3_BUCKET: z.string().min(3, { message: 'S3_BUCKET must name a bucket' }).default('linkwright-scans'),
+	S3_REGION: z.string().min(1).default('us-east-1'),
+	S3_ACCESS_KEY_ID: z.string().optional(),
+	S3_SECRET_ACCESS_KEY: z.string().optional(),
+	S3_FORCE_PATH_STYLE: flag
 });
 
 export type ServerEnv = z.infer<typeof schema>;

@@ -7,6 +7,7 @@ import { carForUser } from '$lib/server/db/queries/cars';
 import { carRevisionForUser } from '$lib/server/db/queries/car-revisions';
 import { cornerForUser, revisionForUser } from '$lib/server/db/queries/corners';
 import { shareForUser } from '$lib/server/db/queries/shares';
+import { scanForUser } from '$lib/server/db/queries/scans';
 import type { Role } from '$lib/server/db/schema';
 import type { TeamRole } from '$lib/server/db/queries/users';
 
@@ -91,4 +92,9 @@ export async function requireShare(event: RequestEvent, shareId: string, action:
 /** Development and demo pages (/dev/*): 404 unless this is development or demo mode (LW_DEMO). */
 export function requireDemoMode() {
 	if (!(dev || serverEnv().LW_DEMO)) notFound();
+}
+
+/** A scan (with its car) the caller may act on; 404 / 403 as for cars. Scans are team data like revisions. */
+export async function requireScan(event: RequestEvent, scanId: string, action: Action) {
+	return allowed(await scanForUser(db, requireUser(event).id, scanId), 'Scan', action);
 }

@@ -3,3 +3,7 @@ declare module 'virtual:lw-tolerance-worker' {
 	const code: string;
 	export default code;
 }
+declare module 'virtual:lw-scan-worker' {
+	const code: string;
+	export default code;
+}

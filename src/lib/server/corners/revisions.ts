@@ -11,6 +11,7 @@ import {
 	setCornerKind,
 	type NewUpload
 } from '$lib/server/db/queries/corners';
+import { insertPointSources, type NewPointSource } from '$lib/server/db/queries/scans';
 import type { Car, Corner } from '$lib/server/db/schema';
 
 /** Stops with 400 when the geometry's side (sign of wheel.centre y) or axle disagrees with the corner. */
@@ -57,7 +58,9 @@ export interface SaveRevision {
 	note: string;
 	parentId?: string | null;
 	upload?: NewUpload;
-	source: 'editor' | 'api' | 'import' | 'fix';
+	source: 'editor' | 'api' | 'import' | 'fix' | 'scan';
+	/** where captured points came from (scan, fit, residual), written with the revision */
+	pointSources?: NewPointSource[];
 }
 
 /** Saves a new immutable revision; returns it with the newest number the parent had been superseded by, if any. */
@@ -76,6 +79,7 @@ export async function saveRevision(input: SaveRevision) {
 		input.upload,
 		async (tx, row) => {
 			if (corner.kind !== geometry.kind) await setCornerKind(tx, corner.id, geometry.kind);
+			if (input.pointSources) await insertPointSources(tx, row.id, input.pointSources);
 			await recordAudit(tx, {
 				teamId: car.teamId,
 				actorId: userId,

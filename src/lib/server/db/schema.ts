@@ -2,6 +2,7 @@
 import { sql } from 'drizzle-orm';
 import { CORNER_KINDS } from '../../kinds';
 import {
+	bigint,
 	bigserial,
 	boolean,
 	check,
@@ -358,6 +359,67 @@ export const rateEvents = pgTable(
 	(t) => [index('rate_events_bucket_key_idx').on(t.bucket, t.key, t.createdAt)]
 );
 
+export const SCAN_FORMATS = ['stl', 'ply', 'obj'] as const;
+export const SCAN_STATUSES = ['uploading', 'processing', 'ready', 'failed'] as const;
+export const SCAN_UNITS = ['mm', 'm', 'in'] as const;
+
+/**
+ * A 3-D scan of a corner's chassis and suspension (issue 17): team data through its car, under the same
+ * permissions as revisions. The original file and its preview live in object storage under `object_key` and
+ * `preview_key`; `upload_id` is the open multipart upload while `status` is 'uploading'. `status_at` is when the
+ * status last changed, so a row left 'uploading' or 'processing' by a crash is swept to 'failed'.
+ */
+export const scans = pgTable(
+	'scans',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		carId: uuid('car_id').notNull().references(() => cars.id, { onDelete: 'cascade' }),
+		cornerId: uuid('corner_id').references(() => corners.id, { onDelete: 'set null' }),
+		name: text('name').notNull(),
+		format: text('format', { enum: SCAN_FORMATS }).notNull(),
+		sizeBytes: bigint('size_bytes', { mode: 'number' }).notNull(),
+		objectKey: text('object_key').notNull(),
+		uploadId: text('upload_id'),
+		previewKey: text('preview_key'),
+		status: text('status', { enum: SCAN_STATUSES }).notNull().default('uploading'),
+		statusAt: timestamp('status_at', { withTimezone: true }).notNull().defaultNow(),
+		error: text('error'),
+		stats: jsonb('stats').$type<Record<string, unknown>>(),
+		unit: text('unit', { enum: SCAN_UNITS }),
+		alignment: jsonb('alignment').$type<Record<string, unknown>>(),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created()
+	},
+	(t) => [
+		index('scans_car_idx').on(t.carId, t.createdAt),
+		index('scans_status_idx').on(t.status, t.statusAt),
+		check('scans_format_check', oneOf(t.format, SCAN_FORMATS)),
+		check('scans_status_check', oneOf(t.status, SCAN_STATUSES)),
+		check('scans_size_check', sql`${t.sizeBytes} > 0`)
+	]
+);
+
+/**
+ * Where a revision's point came from when it was captured on a scan: the scan (its name kept when the scan is
+ * deleted), the fit, its residual RMS (mm) and how many surface points it used. Written with the revision.
+ */
+export const pointSources = pgTable(
+	'point_sources',
+	{
+		revisionId: uuid('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+		point: text('point').notNull(),
+		scanId: uuid('scan_id').references(() => scans.id, { onDelete: 'set null' }),
+		scanName: text('scan_name').notNull(),
+		fit: text('fit').notNull(),
+		residualMm: doublePrecision('residual_mm'),
+		pointsUsed: integer('points_used'),
+		createdAt: created()
+	},
+	(t) => [primaryKey({ columns: [t.revisionId, t.point] })]
+);
+
+export type Scan = typeof scans.$inferSelect;
+export type PointSource = typeof pointSources.$inferSelect;
 export type User = typeof users.$inferSelect;
 export type Team = typeof teams.$inferSelect;
 export type Membership = typeof memberships.$inferSelect;

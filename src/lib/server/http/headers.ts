@@ -1,6 +1,7 @@
 // Security headers on every answer of the app. The pages' Content-Security-Policy comes from kit.csp in
 // svelte.config.js (hashes of the inline scripts); answers without one (API, CSV, redirects) get a deny-all policy.
 import type { RequestEvent } from '@sveltejs/kit';
+import { withStorageConnect } from '$lib/server/scans/origin';
 
 /** Powerful browser features the app never uses, switched off (W3C Permissions Policy). */
 export const PERMISSIONS_POLICY =
@@ -27,6 +28,7 @@ export function securityHeaders(pathname: string, has: (name: string) => boolean
 /** Sets the headers on a response (a copy when its headers are immutable); a route's own choice is kept. */
 export function withSecurityHeaders(event: RequestEvent, response: Response): Response {
 	const set = securityHeaders(event.url.pathname, (name) => response.headers.has(name));
+	const pageCsp = response.headers.has('content-security-policy');
 	let res = response;
 	try {
 		res.headers.set(set[0][0], set[0][1]);
@@ -34,5 +36,9 @@ export function withSecurityHeaders(event: RequestEvent, response: Response): Re
 		res = new Response(response.body, response);
 	}
 	for (const [name, value] of set) res.headers.set(name, value);
+	// the corner and car pages upload scans straight to object storage: its origin joins connect-src there only
+	if (pageCsp && /^\/(corners|cars)\/[^/]+\/?$/.test(event.url.pathname)) {
+		res.headers.set('content-security-policy', withStorageConnect(res.headers.get('content-security-policy')!));
+	}
 	return res;
 }

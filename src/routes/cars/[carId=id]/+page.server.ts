@@ -7,11 +7,16 @@ import { cornersOfCar, createCorner } from '$lib/server/db/queries/corners';
 import { setCarTargets } from '$lib/server/db/queries/cars';
 import { parseForm } from '$lib/server/forms';
 import { can, requireCar } from '$lib/server/permissions';
+import { scansOfCar } from '$lib/server/db/queries/scans';
+import { sweepScans } from '$lib/server/scans/process';
+import { scanView } from '$lib/server/scans/scans';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	const { car, role } = await requireCar(event, event.params.carId, 'view');
-	return { car, targets: targetsSchema.catch([]).parse(car.targets), corners: await cornersOfCar(db, car.id), canEdit: can(role, 'edit') };
+	await sweepScans();
+	const [corners, scans] = await Promise.all([cornersOfCar(db, car.id), scansOfCar(db, car.id)]);
+	return { car, targets: targetsSchema.catch([]).parse(car.targets), corners, scans: scans.map(scanView), canEdit: can(role, 'edit') };
 };
 
 /** Numbers from the target form; a decimal comma is accepted. */

@@ -8,6 +8,9 @@ import { db } from '$lib/server/db';
 import { latestRevision, revisionOfCorner, revisionsOfCorner, setBaseline } from '$lib/server/db/queries/corners';
 import { recordAudit } from '$lib/server/db/queries/audit';
 import { studiesOfCorner } from '$lib/server/db/queries/studies';
+import { scansOfCar } from '$lib/server/db/queries/scans';
+import { sweepScans } from '$lib/server/scans/process';
+import { scanView } from '$lib/server/scans/scans';
 import { can, requireCorner } from '$lib/server/permissions';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -16,11 +19,13 @@ export const load: PageServerLoad = async (event) => {
 	const fromId = event.url.searchParams.get('from');
 	const asked = fromId && z.string().uuid().safeParse(fromId).success ? fromId : null;
 	// the four reads do not depend on each other: one round trip's wait instead of four
-	const [latest, askedRevision, revisions, studies] = await Promise.all([
+	await sweepScans();
+	const [latest, askedRevision, revisions, studies, scans] = await Promise.all([
 		latestRevision(db, corner.id),
 		asked ? revisionOfCorner(db, corner.id, asked) : null,
 		revisionsOfCorner(db, corner.id),
-		studiesOfCorner(db, corner.id)
+		studiesOfCorner(db, corner.id),
+		scansOfCar(db, car.id, corner.id)
 	]);
 	const shown = asked ? askedRevision : latest;
 	if (fromId && !shown) error(404, { message: 'Revision not found', code: 'not_found' });
@@ -37,6 +42,7 @@ export const load: PageServerLoad = async (event) => {
 		vehicle: vehicleFromCar(car, corner),
 		targets: targetsSchema.catch([]).parse(car.targets),
 		studies,
+		scans: scans.map(scanView),
 		design,
 		initial,
 		canEdit: can(role, 'edit')

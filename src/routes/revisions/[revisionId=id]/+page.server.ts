@@ -4,6 +4,7 @@ import { createShareInput, SHARE_DEFAULT_DAYS } from '$lib/schemas/share';
 import { db } from '$lib/server/db';
 import { revisionsOfCorner } from '$lib/server/db/queries/corners';
 import { findUserById } from '$lib/server/db/queries/users';
+import { pointSourcesOf } from '$lib/server/db/queries/scans';
 import { parseForm } from '$lib/server/forms';
 import { can, requireRevision, requireShare, requireUser } from '$lib/server/permissions';
 import { createShare, listShares, revokeShare } from '$lib/server/sharing/shares';
@@ -25,6 +26,8 @@ export const load: PageServerLoad = async (event) => {
 		canEdit: can(role, 'edit'),
 		canShare,
 		shares: canShare ? await listShares(revision.id) : [],
+		// where points captured on a scan came from (issue 17)
+		sources: (await pointSourcesOf(db, revision.id)).map((s) => ({ point: s.point, scanId: s.scanId, scanName: s.scanName, fit: s.fit, residualMm: s.residualMm, pointsUsed: s.pointsUsed })),
 		shareDefaultDays: SHARE_DEFAULT_DAYS
 	};
 };

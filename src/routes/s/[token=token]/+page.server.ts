@@ -3,6 +3,8 @@
 // from memory; this load renders the page once per version of the sheet.
 import { cachedSheet, openShare } from '$lib/server/sharing/sheet';
 import { SHEET_CACHE_CONTROL, openedFor } from '$lib/server/sharing/sheet-cache';
+import { db } from '$lib/server/db';
+import { pointSourcesOf } from '$lib/server/db/queries/scans';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -10,5 +12,7 @@ export const load: PageServerLoad = async (event) => {
 	event.setHeaders({ 'cache-control': SHEET_CACHE_CONTROL, 'referrer-policy': 'no-referrer', 'x-robots-tag': 'noindex' });
 	const opened = openedFor(event) ?? (await openShare(event.params.token, event.getClientAddress()));
 	const { geometry: _g, version: _v, ...sheet } = await cachedSheet(opened);
-	return { ...sheet, csvHref: `/s/${event.params.token}/csv` };
+	// where points captured on a scan came from (written with the revision, so as immutable as it; no scan ids shown)
+	const sources = (await pointSourcesOf(db, opened.revision.id)).map((p) => ({ point: p.point, scanName: p.scanName, fit: p.fit, residualMm: p.residualMm, pointsUsed: p.pointsUsed }));
+	return { ...sheet, sources, csvHref: `/s/${event.params.token}/csv` };
 };
