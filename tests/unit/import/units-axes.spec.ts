@@ -94,3 +94,13 @@ describe('axes', () => {
 		expect(p.warnings).toEqual(['the source axes given are left-handed (a mirror image): check the signs of the axis mapping']);
 	});
 });
+
+describe('plausibility in the import preview (issue 19)', () => {
+	it('a tie-rod outer joint typed 180 mm outboard of the wheel centre is warned about by its label; the stock list has no warning', () => {
+		expect(preview(importCorner(bytes(csvOf(STOCK)), { unit: 'mm' }, ctx)).warnings).toEqual([]);
+		const slip = mapPoints((p) => [...p]);
+		slip['steer.outer'] = [slip['steer.outer'][0], slip['wheel.centre'][1] + 180, slip['steer.outer'][2]];
+		const w = preview(importCorner(bytes(csvOf(slip)), { unit: 'mm' }, ctx)).warnings;
+		expect(w).toEqual([expect.stringMatching(/^Tie rod, outer joint \(steer\.outer\) is 1\d\d mm outboard of the wheel centre plane/)]);
+	});
+});

@@ -127,8 +127,9 @@ function run(bytes: Uint8Array, opts: ImportOptions, ctx: ImportContext): Import
 	const { map, alignment } = alignmentMap(keptPts, opts, ctx);
 	const points = outputPoints(keptPts, map, opts);
 	warnings.push(...sideWarnings(points, ctx));
-	// the plausibility checks that need no solve and no tyre (the point table and the API add the others)
-	if (ctx.kind) warnings.push(...plausibility({ kind: ctx.kind, points }).map((w) => w.message));
+	// the plausibility checks that need no solve and no tyre (the point table and the API add the others); after a
+	// unit warning they would only repeat it point by point (every arm too short when inches were read as mm)
+	if (ctx.kind && warnings.length === 0) warnings.push(...plausibility({ kind: ctx.kind, points }).map((w) => w.message));
 	return {
 		points,
 		columns: { ...columns, headers },
