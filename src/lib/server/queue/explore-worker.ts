@@ -37,7 +37,7 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 		if (!entry) {
 			const spec = study.spec as unknown as ExploreSpec;
 			try {
-				entry = { spec, ev: exploreEvaluator(study.geometry as unknown as CornerInput, spec.grid) };
+				entry = { spec, ev: exploreEvaluator(study.geometry as unknown as CornerInput, spec) };
 			} catch (err) {
 				await failExploration(db, job.explorationId, (err as Error).message);
 				return;

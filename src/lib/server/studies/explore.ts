@@ -4,7 +4,7 @@
 // A variant's offsets are a pure function of (plan, seed, index), so any chunk can be solved anywhere, in any
 // order, by any number of workers, with identical results.
 
-import { CornerEvaluator, type Coordinate, type HeaveGrid } from './evaluate';
+import { CornerEvaluator, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 import type { CornerInput } from '../kinematics/corner';
 import { Random } from './random';
 
@@ -30,6 +30,9 @@ export interface ExploreSpec {
 	levels: number;
 	seed: number;
 	grid: HeaveGrid;
+	/** whether the corner gives a roll centre and a motion ratio (false: those measures stay empty) */
+	rollCentre?: boolean;
+	motionRatio?: boolean;
 }
 
 /** The measures stored per variant, in this order. */
@@ -171,11 +174,14 @@ export function variantOffsets(spec: ExploreSpec, i: number, out = new Float64Ar
 
 // ---------- solving ----------
 
-const CURVES = ['toe', 'camber', 'rc_height', 'motion_ratio'] as const;
+/** The curves a study solves: toe and camber always, the roll centre and motion ratio where the corner gives them. */
+function curvesOf(spec: Pick<ExploreSpec, 'rollCentre' | 'motionRatio'>): CurveMeasure[] {
+	return ['toe', 'camber', ...(spec.rollCentre !== false ? (['rc_height'] as const) : []), ...(spec.motionRatio !== false ? (['motion_ratio'] as const) : [])];
+}
 
-/** The evaluator for a study: the corner swept over the grid for toe, camber, roll centre and motion ratio. */
-export function exploreEvaluator(corner: CornerInput, grid: HeaveGrid): CornerEvaluator {
-	return new CornerEvaluator(corner, grid, CURVES);
+/** The evaluator for a study: the corner swept over the grid for its curves (throws when it cannot be assembled as it is). */
+export function exploreEvaluator(corner: CornerInput, spec: Pick<ExploreSpec, 'grid' | 'rollCentre' | 'motionRatio'>): CornerEvaluator {
+	return new CornerEvaluator(corner, spec.grid, curvesOf(spec));
 }
 
 /** One chunk's results: per variant a 1 (assembles over the whole range) or 0, and the measures (NaN when not). */
@@ -192,7 +198,10 @@ export function solveChunk(ev: CornerEvaluator, spec: ExploreSpec, first: number
 	const m = EXPLORE_MEASURES.length;
 	const n = ev.count;
 	const d = ev.design;
-	const curves = new Float64Array(CURVES.length * n);
+	const names = curvesOf(spec);
+	const curves = new Float64Array(names.length * n);
+	const rc = names.indexOf('rc_height') * n;
+	const mr = names.indexOf('motion_ratio') * n;
 	const offsets = new Float64Array(spec.coords.length);
 	const rng = new Random(0);
 	const ok = new Uint8Array(count);
@@ -204,26 +213,28 @@ export function solveChunk(ev: CornerEvaluator, spec: ExploreSpec, first: number
 		ok[v] = 1;
 		const toe = 0;
 		const camber = n;
-		const rc = 2 * n;
-		const mr = 3 * n;
 		let ss = 0;
 		let rcMin = Infinity;
 		let rcMax = -Infinity;
 		for (let p = 0; p < n; p++) {
 			const dt = curves[toe + p] - curves[toe + d];
 			ss += dt * dt;
-			const r = curves[rc + p];
-			if (r < rcMin) rcMin = r;
-			if (r > rcMax) rcMax = r;
+			if (rc >= 0) {
+				const r = curves[rc + p];
+				if (r < rcMin) rcMin = r;
+				if (r > rcMax) rcMax = r;
+			}
 		}
 		const lo = Math.max(0, d - 1);
 		const hi = Math.min(n - 1, d + 1);
 		const o = v * m;
 		values[o] = Math.sqrt(ss / n);
 		values[o + 1] = (curves[camber + hi] - curves[camber + lo]) / (h[hi] - h[lo]);
-		values[o + 2] = curves[rc + d];
-		values[o + 3] = rcMax - rcMin;
-		values[o + 4] = curves[mr + d];
+		if (rc >= 0) {
+			values[o + 2] = curves[rc + d];
+			values[o + 3] = rcMax - rcMin;
+		}
+		if (mr >= 0) values[o + 4] = curves[mr + d];
 	}
 	return { first, count, ok, values };
 }
