@@ -43,7 +43,7 @@ const app = spawn(process.execPath, ['scripts/serve.mjs'], { cwd: root, env, std
 const worker =
 	process.env.LW_LOCAL_WORKER === '0'
 		? null
-		: spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'scripts/worker.ts'], { cwd: root, env: { ...env, LW_WORKER_THREADS: process.env.LW_WORKER_THREADS ?? '1' }, stdio: 'inherit' });
+		: spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'scripts/worker.ts'], { cwd: root, env: { ...env, LW_WORKER_THREADS: process.env.LW_WORKER_THREADS ?? '1', LW_WORKER_PARENT: String(process.pid) }, stdio: 'inherit' });
 
 let stopping = false;
 /** Stops the app (SIGTERM, SIGKILL after 8 s), then the mail server, then exits. */

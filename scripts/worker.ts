@@ -29,6 +29,9 @@ if (isMainThread) {
 		setTimeout(() => process.exit(0), 8000).unref();
 	};
 	for (const s of ['SIGINT', 'SIGTERM'] as const) process.on(s, stop);
+	// Started by `npm start` (LW_WORKER_PARENT): end with it, even when it was killed outright.
+	const parent = Number(process.env.LW_WORKER_PARENT || 0);
+	if (parent) setInterval(() => process.ppid !== parent && stop(), 1000).unref();
 	let left = threads;
 	for (const w of workers) w.on('exit', () => --left === 0 && process.exit(0));
 } else {
