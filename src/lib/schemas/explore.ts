@@ -52,8 +52,8 @@ export const variantsQuery = z.object({
 });
 
 export const paretoQuery = z.object({
-	x: column,
-	y: column,
+	x: column.default('toe_rms'),
+	y: column.default('rc_migration'),
 	/** 'min' or 'max' per objective */
 	xSense: z.enum(['min', 'max'], { message: "must be 'min' or 'max'" }).default('min'),
 	ySense: z.enum(['min', 'max'], { message: "must be 'min' or 'max'" }).default('min'),
