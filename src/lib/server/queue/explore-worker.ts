@@ -54,8 +54,11 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 		options.onChunk?.(job, wrote);
 	}
 
-	const workId = await boss.work<ChunkJob>(EXPLORE_QUEUE, { batchSize: 1, pollingIntervalSeconds: options.pollSeconds ?? 0.5 }, async (jobs) => {
+	let workId = '';
+	workId = await boss.work<ChunkJob>(EXPLORE_QUEUE, { batchSize: 1, pollingIntervalSeconds: options.pollSeconds ?? 0.5 }, async (jobs) => {
 		for (const job of jobs) await one(job.data);
+		// pg-boss waits out the polling interval after a job shorter than it; with work in hand, fetch again at once
+		if (workId) boss.notifyWorker(workId);
 	});
 	return {
 		written: () => written,
