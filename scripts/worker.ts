@@ -29,9 +29,18 @@ if (isMainThread) {
 		setTimeout(() => process.exit(0), 8000).unref();
 	};
 	for (const s of ['SIGINT', 'SIGTERM'] as const) process.on(s, stop);
-	// Started by `npm start` (LW_WORKER_PARENT): end with it, even when it was killed outright.
+	// Started by `npm start` (LW_WORKER_PARENT, its pid; tsx puts a process between us): end with it, even when it
+	// was killed outright.
 	const parent = Number(process.env.LW_WORKER_PARENT || 0);
-	if (parent) setInterval(() => process.ppid !== parent && stop(), 1000).unref();
+	const alive = (pid: number) => {
+		try {
+			process.kill(pid, 0);
+			return true;
+		} catch {
+			return false;
+		}
+	};
+	if (parent) setInterval(() => !alive(parent) && (console.log('[worker] npm start has gone; stopping'), stop()), 1000).unref();
 	let left = threads;
 	for (const w of workers) w.on('exit', () => --left === 0 && process.exit(0));
 } else {
