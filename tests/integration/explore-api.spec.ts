@@ -162,3 +162,46 @@ describe('through the queue', () => {
 		expect((await no.json()).error.field).toBe('index');
 	});
 });
+
+describe('faults', () => {
+	test('kill -9 of a worker process mid-run: another worker finishes the study and every row equals an uninterrupted solve', async () => {
+		const { spawn } = await import('node:child_process');
+		const { createExploration } = await import('../../src/lib/server/db/queries/explorations');
+		const { startQueue, enqueueChunks } = await import('../../src/lib/server/queue/explore-queue');
+		const { exploreEvaluator, solveChunk } = await import('../../src/lib/server/studies/explore');
+		const [rev] = await testDb().select().from(revisions).where(eq(revisions.id, rackMoved));
+		const spec = { plan: 'sobol' as const, coords: [{ point: 'steer.inner', axis: 2 as const, from: -25, to: 5 }, { point: 'steer.outer', axis: 2 as const, from: -15, to: 15 }], variants: 12_000, levels: 5, seed: 5, grid: { from: -40, to: 40, step: 2 } };
+		const row = await createExploration(testDb(), { cornerId: CORNER, revisionId: rackMoved, spec, variants: 12_000, chunkSize: 1000, chunks: 12, createdBy: rev.authorId! });
+		const boss = await startQueue(URL);
+		// a 2 s expiry, so the killed worker's chunk comes back within seconds (the product's default is 120 s)
+		await enqueueChunks(boss, row.id, 12, 2);
+		await boss.stop({ graceful: false, wait: true });
+
+		const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], { env: { ...process.env, DATABASE_URL: URL, LW_WORKER_THREADS: '1', LW_WORKER_VERBOSE: '1' }, stdio: ['ignore', 'pipe', 'inherit'] });
+		await new Promise<void>((resolve) => child.stdout!.on('data', (d: Buffer) => d.toString().includes(`${row.id} chunk`) && resolve()));
+		child.kill('SIGKILL');
+		await new Promise((r) => child.once('exit', r));
+		const [mid] = await testDb().select({ status: explorations.status }).from(explorations).where(eq(explorations.id, row.id));
+		expect(mid.status).toBe('queued'); // killed before the end
+
+		process.env.LW_QUEUE_MAINTENANCE_S = '1';
+		const written = await solveWith(1, row.id);
+		expect(written[0]).toBeGreaterThan(0);
+
+		const ev = exploreEvaluator(rev.geometry as never, spec);
+		const expected: unknown[] = [];
+		for (let c = 0; c < 12; c++) {
+			const r = solveChunk(ev, spec, c * 1000, 1000);
+			for (let v = 0; v < 1000; v++) {
+				const f = (k: number) => (Number.isNaN(r.values[v * 5 + k]) ? null : Math.fround(r.values[v * 5 + k]));
+				expected.push({ idx: c * 1000 + v, ok: r.ok[v] === 1, toe: f(0), camber: f(1), rc: f(2), mig: f(3), mr: f(4) });
+			}
+		}
+		// PostgreSQL prints a real in its shortest exact form; back to float32 it is the very value written
+		const f32 = (v: number | null) => (v === null ? null : Math.fround(v));
+		const got = (await rowsOf(row.id)).map((r) => ({ ...r, toe: f32(r.toe), camber: f32(r.camber), rc: f32(r.rc), mig: f32(r.mig), mr: f32(r.mr) }));
+		expect(got).toEqual(expected);
+		const [done] = await testDb().select({ status: explorations.status }).from(explorations).where(eq(explorations.id, row.id));
+		expect(done.status).toBe('done');
+	}, 120_000);
+});

@@ -4,8 +4,11 @@
 import PgBoss from 'pg-boss';
 
 export const EXPLORE_QUEUE = 'explore-chunk';
-/** A chunk not finished within this long (a killed worker) is failed by the queue's maintenance and retried. */
-export const CHUNK_EXPIRE_S = 120;
+/**
+ * A chunk not finished within this long (a killed worker) is failed by the queue's maintenance and retried.
+ * LW_CHUNK_EXPIRE_S and LW_QUEUE_MAINTENANCE_S (how often maintenance runs, 15 s) shorten both for the fault test.
+ */
+export const CHUNK_EXPIRE_S = Number(process.env.LW_CHUNK_EXPIRE_S || 120);
 export const CHUNK_RETRIES = 5;
 
 /** Starts a pg-boss instance on `url` and makes sure the queue exists. `supervise`: run the queue's maintenance. */
@@ -16,7 +19,7 @@ export async function startQueue(url: string, { supervise = false, max = 2 }: { 
 		application_name: 'linkwright-queue',
 		supervise,
 		schedule: false,
-		maintenanceIntervalSeconds: 15
+		maintenanceIntervalSeconds: Number(process.env.LW_QUEUE_MAINTENANCE_S || 15)
 	});
 	boss.on('error', (err) => console.error(`[queue] ${err.message}`));
 	await boss.start();
@@ -32,9 +35,9 @@ export async function startQueue(url: string, { supervise = false, max = 2 }: { 
 }
 
 /** Queues chunks 0 … chunks − 1 of an exploration, in one insert. */
-export async function enqueueChunks(boss: PgBoss, explorationId: string, chunks: number): Promise<void> {
+export async function enqueueChunks(boss: PgBoss, explorationId: string, chunks: number, expireInSeconds = CHUNK_EXPIRE_S): Promise<void> {
 	const jobs: PgBoss.JobInsert[] = [];
-	for (let c = 0; c < chunks; c++) jobs.push({ name: EXPLORE_QUEUE, data: { explorationId, chunk: c }, retryLimit: CHUNK_RETRIES, expireInSeconds: CHUNK_EXPIRE_S });
+	for (let c = 0; c < chunks; c++) jobs.push({ name: EXPLORE_QUEUE, data: { explorationId, chunk: c }, retryLimit: CHUNK_RETRIES, retryDelay: 1, expireInSeconds });
 	for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000));
 }
 

@@ -119,6 +119,9 @@ export async function storeChunk(db: Database, id: string, chunk: number, first:
 		await tx.execute(sql`insert into exploration_variants (exploration_id, idx, ok, toe_rms, camber_gain, rc_height, rc_migration, motion_ratio)
 			select ${id}::uuid, * from unnest(${idx}::int[], ${oks}::bool[], ${arrayLiteral(values, measures, 0, n)}::real[], ${arrayLiteral(values, measures, 1, n)}::real[],
 				${arrayLiteral(values, measures, 2, n)}::real[], ${arrayLiteral(values, measures, 3, n)}::real[], ${arrayLiteral(values, measures, 4, n)}::real[])`);
+		// The study's row is locked before counting, so of two chunks committing at once the second sees the first
+		// (without it, each transaction counts only its own new chunk and neither marks the study done).
+		await tx.execute(sql`select 1 from explorations where id = ${id}::uuid for update`);
 		await tx.execute(sql`update explorations set status = 'done', finished_at = now()
 			where id = ${id}::uuid and status = 'queued' and chunks = (select count(*) from exploration_chunks where exploration_id = ${id}::uuid)`);
 		return true;
