@@ -112,6 +112,21 @@ describe('through the queue', () => {
 		expect(status).toMatchObject({ status: 'done', chunks: 2, chunksDone: 2, variants: 3000, feasible: ra.filter((r) => r.ok).length });
 	});
 
+	test('progress reaches the browser as server-sent events after each stored chunk (LISTEN/NOTIFY), ending when done', async () => {
+		const res = await start(engineer, { variants: 6000, seed: 12 });
+		const id = (await res.json()).id;
+		const stream = await viewer.fetch(`/api/v1/explorations/${id}/events`);
+		expect(stream.status).toBe(200);
+		expect(stream.headers.get('content-type')).toBe('text/event-stream');
+		const text = stream.text(); // resolves when the server ends the stream
+		await solveWith(1, id);
+		const events = (await text).split('\n\n').filter((e) => e.startsWith('event: progress')).map((e) => JSON.parse(e.split('data: ')[1]));
+		expect(events.at(-1)).toMatchObject({ status: 'done', chunksDone: 3 });
+		expect(events.length).toBeGreaterThanOrEqual(2); // the state at opening, then at least the last chunk's
+		const done = events.map((e) => e.chunksDone);
+		expect(done).toEqual([...done].sort((x, y) => x - y));
+	});
+
 	test('a chunk delivered again (a retried job) adds nothing', async () => {
 		const before = await rowsOf(a);
 		const wrote = await storeChunk(testDb(), a, 0, 0, new Uint8Array(2000).fill(1), new Float64Array(2000 * 5).fill(9), 5);

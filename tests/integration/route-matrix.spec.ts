@@ -92,6 +92,8 @@ const TABLE: Record<string, string> = {
 	// Design-space exploration: starting one is a write (rows and queued jobs); its results are read by any member.
 	'POST /api/v1/revisions/[revisionId=id]/explore': TEAM_EDIT,
 	'GET /api/v1/explorations/[explorationId=id]': TEAM_VIEW,
+	// server-sent events; the matrix's exploration is finished, so the stream sends its state once and ends
+	'GET /api/v1/explorations/[explorationId=id]/events': TEAM_VIEW,
 	'POST /api/v1/explorations/[explorationId=id]/cancel': TEAM_EDIT,
 	'GET /api/v1/explorations/[explorationId=id]/variants': TEAM_VIEW,
 	'GET /api/v1/explorations/[explorationId=id]/pareto': TEAM_VIEW,
@@ -235,7 +237,7 @@ describe('route × role', () => {
 		const [study] = await db.insert(studies).values({ cornerId: FRONT_LEFT, name: 'Matrix study', settings: {}, results: {} }).returning();
 		ids.studyId = study.id;
 		const spec = { plan: 'lhs', coords: [{ point: 'steer.inner', axis: 2, from: -5, to: 5 }], variants: 10, levels: 5, seed: 1, grid: { from: -40, to: 40, step: 2 } };
-		const [exploration] = await db.insert(explorations).values({ cornerId: FRONT_LEFT, revisionId: rev.id, spec, variants: 10, chunkSize: 2000, chunks: 1 }).returning();
+		const [exploration] = await db.insert(explorations).values({ cornerId: FRONT_LEFT, revisionId: rev.id, spec, variants: 10, chunkSize: 2000, chunks: 1, status: 'done' }).returning();
 		ids.explorationId = exploration.id;
 		ids.shareToken = newToken();
 		await createShareLink(db, { teamId: DEMO_TEAM_ID, revisionId: rev.id, tokenHash: hashToken(ids.shareToken), note: '', showRevisionNote: false, expiresAt: new Date(Date.now() + 86400_000), createdBy: demoUsers[0].id });

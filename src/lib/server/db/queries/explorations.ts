@@ -84,7 +84,17 @@ export async function cancelExploration(db: Database, id: string) {
 		.set({ status: 'cancelled', finishedAt: sql`now()` })
 		.where(and(eq(explorations.id, id), eq(explorations.status, 'queued')))
 		.returning({ id: explorations.id });
+	if (rows.length) await db.execute(sql`select pg_notify(${PROGRESS_CHANNEL}, ${id})`);
 	return rows.length > 0;
+}
+
+/** The LISTEN/NOTIFY channel of exploration progress: the payload is the exploration's id. */
+export const PROGRESS_CHANNEL = 'exploration_progress';
+
+/** Listens for progress on the driver's own listening connection; returns a function that stops listening. */
+export async function listenProgress(client: { listen: (channel: string, fn: (payload: string) => void) => Promise<{ unlisten: () => Promise<void> }> }, fn: (id: string) => void) {
+	const { unlisten } = await client.listen(PROGRESS_CHANNEL, fn);
+	return unlisten;
 }
 
 /** Marks an exploration failed with a reason (a corner the worker cannot solve at all). */
@@ -124,6 +134,8 @@ export async function storeChunk(db: Database, id: string, chunk: number, first:
 		await tx.execute(sql`select 1 from explorations where id = ${id}::uuid for update`);
 		await tx.execute(sql`update explorations set status = 'done', finished_at = now()
 			where id = ${id}::uuid and status = 'queued' and chunks = (select count(*) from exploration_chunks where exploration_id = ${id}::uuid)`);
+		// delivered at commit to every app instance listening (the progress stream)
+		await tx.execute(sql`select pg_notify(${PROGRESS_CHANNEL}, ${id})`);
 		return true;
 	});
 }
