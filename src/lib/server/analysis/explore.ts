@@ -7,7 +7,7 @@ import { AXIS_NAMES } from '$lib/schemas/analysis';
 import type { ExploreRequest } from '$lib/schemas/explore';
 import type { CornerGeometry } from '$lib/schemas/geometry';
 import { db } from '$lib/server/db';
-import { createExploration, explorationProgress } from '$lib/server/db/queries/explorations';
+import { createExploration, deleteExploration, explorationProgress } from '$lib/server/db/queries/explorations';
 import type { explorations } from '$lib/server/db/schema';
 import { serverEnv } from '$lib/server/env';
 import { onShutdown } from '$lib/server/lifecycle';
@@ -15,16 +15,20 @@ import { enqueueChunks, startQueue } from '$lib/server/queue/explore-queue';
 import { DEFAULT_CHUNK, exploreEvaluator, variantCount, variantOffsets, type ExploreSpec } from '$lib/server/studies/explore';
 
 let boss: Promise<PgBoss> | null = null;
+let stopRegistered = false;
 
 /** The app's handle on the queue (started on first use; no maintenance here, the workers run it). */
 function queue(): Promise<PgBoss> {
 	if (!boss) {
 		boss = startQueue(serverEnv().DATABASE_URL, { supervise: false, max: 2 });
-		boss.catch(() => (boss = null));
-		onShutdown('job queue', async () => {
-			const b = await boss?.catch(() => null);
-			await b?.stop({ graceful: false, wait: true, timeout: 1000 });
-		});
+		boss.catch(() => (boss = null)); // the next request tries again (the database may be back)
+		if (!stopRegistered) {
+			stopRegistered = true;
+			onShutdown('job queue', async () => {
+				const b = await boss?.catch(() => null);
+				await b?.stop({ graceful: false, wait: true, timeout: 1000 });
+			});
+		}
 	}
 	return boss;
 }
@@ -56,7 +60,12 @@ export async function startExploration(geometry: CornerGeometry, ids: { cornerId
 	const chunks = Math.ceil(variants / DEFAULT_CHUNK);
 	const q = await queue();
 	const row = await createExploration(db, { ...ids, spec: spec as unknown as Record<string, unknown>, variants, chunkSize: DEFAULT_CHUNK, chunks, createdBy: ids.userId });
-	await enqueueChunks(q, row.id, chunks);
+	try {
+		await enqueueChunks(q, row.id, chunks);
+	} catch (e) {
+		await deleteExploration(db, row.id); // a study whose chunks are not all queued would never finish
+		throw e;
+	}
 	return row;
 }
 

@@ -28,6 +28,11 @@ export async function createExploration(db: Database, e: NewExploration) {
 	return row;
 }
 
+/** Removes an exploration (its jobs could not be queued: nothing half-saved). */
+export async function deleteExploration(db: Database, id: string) {
+	await db.delete(explorations).where(eq(explorations.id, id));
+}
+
 /** The exploration (with corner and car) if the user is a member of its team, with the user's role; else null. */
 export async function explorationForUser(db: Database, userId: string, id: string) {
 	const [row] = await db
