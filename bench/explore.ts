@@ -4,6 +4,7 @@
 // the queue's overhead per chunk (many chunks of ten variants, minus their solve time) and the write of one chunk.
 // LW_BENCH_EXPLORE_VARIANTS sets the study size (default 20,000 variants × 41 positions).
 import { spawn, type ChildProcess } from 'node:child_process';
+import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { and, eq } from 'drizzle-orm';
@@ -94,6 +95,7 @@ export async function run(): Promise<void> {
 		}
 		await stop(ws);
 	}
+	console.log(`load average (1 min) at the end: ${os.loadavg()[0].toFixed(2)} on ${os.availableParallelism()} cores (other work on the machine slows every figure)`);
 	await boss.stop({ graceful: false, wait: true });
 	await client.end();
 }
