@@ -20,13 +20,16 @@ const BENCHES: [string, () => Promise<Bench>][] = [
 	['car-page', () => import('./car-page')],
 	['sharing', () => import('./sharing')],
 	['share-load', () => import('./share-load')],
-	['scan', () => import('./scan')]
+	['scan', () => import('./scan')],
+	['explore', () => import('./explore')]
 ];
 
 /** Parts that drive the built app in Chromium against the test database. */
 const IN_BROWSER = ['workspace', 'car-page', 'sharing', 'scan'];
 /** Parts that drive the built app over HTTP against the test database (no browser). */
 const OVER_HTTP = ['share-load'];
+/** Parts that need the test database only. */
+const ON_DATABASE = ['explore'];
 
 // `npm run bench -- workspace sharing` runs the named parts only.
 const wanted = process.argv.slice(2);
@@ -36,7 +39,7 @@ if (parts.some(([n]) => IN_BROWSER.includes(n))) ensureChromium();
 if (parts.some(([n]) => IN_BROWSER.includes(n) || OVER_HTTP.includes(n))) {
 	ensureBuild();
 	prepareDatabase({ test: true });
-}
+} else if (parts.some(([n]) => ON_DATABASE.includes(n))) prepareDatabase({ test: true });
 for (const [name, bench] of parts) {
 	console.log(`\n== ${name}`);
 	await (await bench()).run();

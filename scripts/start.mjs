@@ -49,6 +49,12 @@ if (fakeStorage) {
 }
 say(`Linkwright on http://127.0.0.1:${port}  (demo accounts in README.md; Ctrl-C stops the app, \`npm run db stop\` stops PostgreSQL)`);
 const app = spawn(process.execPath, ['scripts/serve.mjs'], { cwd: root, env, stdio: ['inherit', 'inherit', 'inherit', 'ipc'] });
+// One local queue worker for design-space explorations (one thread; `npm run worker` elsewhere adds more).
+// LW_LOCAL_WORKER=0 leaves it out. Stopped with the app.
+const worker =
+	process.env.LW_LOCAL_WORKER === '0'
+		? null
+		: spawn(process.execPath, ['node_modules/tsx/dist/cli.mjs', 'scripts/worker.ts'], { cwd: root, env: { ...env, LW_WORKER_THREADS: process.env.LW_WORKER_THREADS ?? '1', LW_WORKER_PARENT: String(process.pid) }, stdio: 'inherit' });
 
 let stopping = false;
 /** Stops the app (SIGTERM, SIGKILL after 8 s), then the mail server, then exits. */
@@ -57,7 +63,11 @@ function stop(reason) {
 	stopping = true;
 	if (reason) say(reason);
 	if (app.exitCode === null && app.signalCode === null) app.kill('SIGTERM');
-	setTimeout(() => app.kill('SIGKILL'), 8000).unref();
+	if (worker && worker.exitCode === null && worker.signalCode === null) worker.kill('SIGTERM');
+	setTimeout(() => {
+		app.kill('SIGKILL');
+		worker?.kill('SIGKILL');
+	}, 8000).unref();
 }
 
 for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP']) process.on(signal, () => stop());
@@ -78,6 +88,10 @@ setInterval(() => {
 	if (process.ppid !== parent || (grandparent !== null && ppidOf(parent) !== grandparent)) stop('the process that started us has gone; stopping');
 }, 1000).unref();
 app.on('exit', async (code, signal) => {
+	if (worker && worker.exitCode === null && worker.signalCode === null) {
+		worker.kill('SIGTERM');
+		await new Promise((resolve) => worker.once('exit', resolve));
+	}
 	await mail?.close();
 	await storage?.close();
 	process.exit(code ?? (signal ? 1 : 0));

@@ -14,7 +14,7 @@ import { createAxleShareLink, createShareLink } from '../../src/lib/server/db/qu
 import { createApiToken } from '../../src/lib/server/db/queries/users';
 import { PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { encodePreview } from '../../src/lib/mesh/preview';
-import { revisions, scans, studies, users } from '../../src/lib/server/db/schema';
+import { explorations, revisions, scans, studies, users } from '../../src/lib/server/db/schema';
 import { Client, DEMO_CAR_ID, DEMO_TEAM_ID, baseUrl, closeDb, freshAccount, testDb } from './helpers';
 
 const FRONT_LEFT = '00000000-0000-4000-8000-0000000000f1';
@@ -91,6 +91,15 @@ const TABLE: Record<string, string> = {
 	// Running an analysis is read-only (any member); storing it needs edit (checked after the body is read).
 	'POST /api/v1/revisions/[revisionId=id]/fix-search': TEAM_VIEW,
 	'POST /api/v1/revisions/[revisionId=id]/moves': TEAM_EDIT,
+	// Design-space exploration: starting one is a write (rows and queued jobs); its results are read by any member.
+	'POST /api/v1/revisions/[revisionId=id]/explore': TEAM_EDIT,
+	'GET /api/v1/explorations/[explorationId=id]': TEAM_VIEW,
+	// server-sent events; the matrix's exploration is finished, so the stream sends its state once and ends
+	'GET /api/v1/explorations/[explorationId=id]/events': TEAM_VIEW,
+	'POST /api/v1/explorations/[explorationId=id]/cancel': TEAM_EDIT,
+	'GET /api/v1/explorations/[explorationId=id]/variants': TEAM_VIEW,
+	'GET /api/v1/explorations/[explorationId=id]/pareto': TEAM_VIEW,
+	'POST /api/v1/explorations/[explorationId=id]/save': TEAM_EDIT,
 	'POST /api/v1/revisions/[revisionId=id]/sensitivity': TEAM_VIEW,
 	'POST /api/v1/revisions/[revisionId=id]/ride-height': TEAM_VIEW,
 	'GET /corners/[cornerId=id]/ride-height': TEAM_VIEW,
@@ -127,6 +136,7 @@ const TABLE: Record<string, string> = {
 	'POST /corners/[cornerId=id] ?/baseline': TEAM_EDIT,
 	'GET /corners/[cornerId=id]/compare': TEAM_VIEW,
 	'GET /corners/[cornerId=id]/fix': TEAM_VIEW,
+	'GET /corners/[cornerId=id]/explore': TEAM_VIEW,
 	'GET /corners/[cornerId=id]/import': TEAM_EDIT,
 	'GET /corners/[cornerId=id]/tolerance': TEAM_VIEW,
 	'GET /dev/charts': DEMO_ONLY,
@@ -214,6 +224,7 @@ describe('the route tree and the table', () => {
 interface Ids {
 	revisionId: string;
 	studyId: string;
+	explorationId: string;
 	shareToken: string;
 	axleShareToken: string;
 	tokens: Record<'viewer' | 'engineer' | 'owner', string>;
@@ -241,6 +252,9 @@ describe('route × role', () => {
 		ids.revisionId = rev.id;
 		const [study] = await db.insert(studies).values({ cornerId: FRONT_LEFT, name: 'Matrix study', settings: {}, results: {} }).returning();
 		ids.studyId = study.id;
+		const spec = { plan: 'lhs', coords: [{ point: 'steer.inner', axis: 2, from: -5, to: 5 }], variants: 10, levels: 5, seed: 1, grid: { from: -40, to: 40, step: 2 } };
+		const [exploration] = await db.insert(explorations).values({ cornerId: FRONT_LEFT, revisionId: rev.id, spec, variants: 10, chunkSize: 2000, chunks: 1, status: 'done' }).returning();
+		ids.explorationId = exploration.id;
 		ids.shareToken = newToken();
 		await createShareLink(db, { teamId: DEMO_TEAM_ID, revisionId: rev.id, tokenHash: hashToken(ids.shareToken), note: '', showRevisionNote: false, expiresAt: new Date(Date.now() + 86400_000), createdBy: demoUsers[0].id });
 		ids.axleShareToken = newToken();
@@ -277,6 +291,7 @@ describe('route × role', () => {
 			'[axle=axle]': 'front',
 			'[revisionId=id]': ids.revisionId,
 			'[studyId=id]': ids.studyId,
+			'[explorationId=id]': ids.explorationId,
 			'[shareId=id]': freshShareId,
 			'[scanId=id]': freshScanId,
 			'[messageId]': 'no-such-message',

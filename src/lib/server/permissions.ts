@@ -6,6 +6,7 @@ import { db } from '$lib/server/db';
 import { carForUser } from '$lib/server/db/queries/cars';
 import { carRevisionForUser } from '$lib/server/db/queries/car-revisions';
 import { cornerForUser, revisionForUser } from '$lib/server/db/queries/corners';
+import { explorationForUser } from '$lib/server/db/queries/explorations';
 import { shareForUser } from '$lib/server/db/queries/shares';
 import { scanForUser } from '$lib/server/db/queries/scans';
 import type { Role } from '$lib/server/db/schema';
@@ -77,6 +78,11 @@ export async function requireCorner(event: RequestEvent, cornerId: string, actio
 /** A revision (with its corner and car) the caller may act on; 404 / 403 as for cars. */
 export async function requireRevision(event: RequestEvent, revisionId: string, action: Action) {
 	return allowed(await revisionForUser(db, requireUser(event).id, revisionId), 'Revision', action);
+}
+
+/** A design-space exploration (with its corner and car) the caller may act on; 404 / 403 as for cars. */
+export async function requireExploration(event: RequestEvent, explorationId: string, action: Action) {
+	return allowed(await explorationForUser(db, requireUser(event).id, explorationId), 'Exploration', action);
 }
 
 /** A car revision (with its car) the caller may act on; 404 / 403 as for cars. */

@@ -13,6 +13,7 @@ import {
 	jsonb,
 	pgTable,
 	primaryKey,
+	real,
 	text,
 	timestamp,
 	uniqueIndex,
@@ -197,6 +198,54 @@ export const studies = pgTable(
 		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [index('studies_corner_idx').on(t.cornerId, t.name)]
+);
+
+/** Design-space explorations (issue 18): the spec, and how far the queue's workers have got. */
+export const explorations = pgTable(
+	'explorations',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		cornerId: uuid('corner_id').notNull().references(() => corners.id, { onDelete: 'cascade' }),
+		revisionId: uuid('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+		spec: jsonb('spec').$type<Record<string, unknown>>().notNull(),
+		variants: integer('variants').notNull(),
+		chunkSize: integer('chunk_size').notNull(),
+		chunks: integer('chunks').notNull(),
+		status: text('status', { enum: ['queued', 'done', 'cancelled', 'failed'] }).notNull().default('queued'),
+		error: text('error'),
+		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: created(),
+		finishedAt: timestamp('finished_at', { withTimezone: true })
+	},
+	(t) => [index('explorations_corner_idx').on(t.cornerId, t.createdAt)]
+);
+
+/** One row per solved chunk: written once (the key is study + chunk), so a retried chunk never counts twice. */
+export const explorationChunks = pgTable(
+	'exploration_chunks',
+	{
+		explorationId: uuid('exploration_id').notNull().references(() => explorations.id, { onDelete: 'cascade' }),
+		chunk: integer('chunk').notNull(),
+		feasible: integer('feasible').notNull(),
+		doneAt: created()
+	},
+	(t) => [primaryKey({ columns: [t.explorationId, t.chunk] })]
+);
+
+/** One row per variant (offsets are recomputed from the spec and index); measures null where it does not assemble. */
+export const explorationVariants = pgTable(
+	'exploration_variants',
+	{
+		explorationId: uuid('exploration_id').notNull().references(() => explorations.id, { onDelete: 'cascade' }),
+		idx: integer('idx').notNull(),
+		ok: boolean('ok').notNull(),
+		toeRms: real('toe_rms'),
+		camberGain: real('camber_gain'),
+		rcHeight: real('rc_height'),
+		rcMigration: real('rc_migration'),
+		motionRatio: real('motion_ratio')
+	},
+	(t) => [primaryKey({ columns: [t.explorationId, t.idx] })]
 );
 
 export const shareLinks = pgTable(
