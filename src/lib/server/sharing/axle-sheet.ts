@@ -13,11 +13,12 @@ import { db } from '$lib/server/db';
 import { recordAudit } from '$lib/server/db/queries/audit';
 import { axleShareToOpen, createAxleShareLink, sharesOfCarRevision } from '$lib/server/db/queries/shares';
 import type { Car, CarRevision } from '$lib/server/db/schema';
-import { allowLocal } from '$lib/server/rate-limit';
 import { absoluteUrl } from '$lib/server/urls';
 import { axleSweep, figuresOrInvalid, loadCarRevision } from '$lib/server/cars/model';
 import { toCsv } from '$lib/csv';
-import { recordShareOpen, pendingOpens } from './opens';
+import { recordShareOpen } from './opens';
+import { limitOpenings, refuseClosedLink } from './sheet';
+import { linkStatus, withPending } from './shares';
 
 const DAY_MS = 24 * 3600 * 1000;
 export const AXLE_LABELS = { front: 'Front axle', rear: 'Rear axle' } as const;
@@ -50,22 +51,14 @@ export async function createAxleShare(event: Pick<RequestEvent, 'url'>, target: 
 /** A car revision's axle links with their status (never the token). */
 export async function listAxleShares(carRevisionId: string) {
 	const now = Date.now();
-	return (await sharesOfCarRevision(db, carRevisionId)).map((s) => {
-		const p = pendingOpens(s.id);
-		return {
-			...s,
-			...(p ? { openCount: s.openCount + p.count, lastOpenedAt: !s.lastOpenedAt || p.last > s.lastOpenedAt ? p.last : s.lastOpenedAt } : {}),
-			status: s.revokedAt ? ('revoked' as const) : s.expiresAt.getTime() <= now ? ('expired' as const) : ('active' as const)
-		};
-	});
+	return (await sharesOfCarRevision(db, carRevisionId)).map((s) => ({ ...s, ...withPending(s), status: linkStatus(s, now) }));
 }
 
 /** The link behind a token, counted as opened unless count is false: 404 unknown or revoked, 410 expired, 429 too often. */
 export async function openAxleShare(token: string, clientAddress: string, { count = true } = {}) {
 	const found = await axleShareToOpen(db, hashToken(token));
-	if (!found || found.share.revokedAt) error(404, { message: 'This link does not exist or was revoked.', code: 'not_found' });
-	if (found.share.expiresAt.getTime() <= Date.now()) error(410, { message: 'This link has expired. Ask the person who sent it for a new one.', code: 'expired' });
-	if (!allowLocal('shareOpen', `${found.share.id}:${clientAddress}`)) error(429, { message: 'This link was opened too often in a short time. Wait a few minutes and reload.', code: 'rate_limited' });
+	refuseClosedLink(found?.share);
+	limitOpenings(found!.share.id, clientAddress);
 	if (count) recordShareOpen(found.share.id, found.share.teamId, { carRevisionId: found.carRevision.id, carRevision: found.carRevision.number, car: found.car.name, axle: found.share.axle });
 	return found;
 }

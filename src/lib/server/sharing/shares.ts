@@ -90,20 +90,21 @@ export async function mailShare(target: Shared, actor: Actor, link: ShareLink, u
 }
 
 /** A link's counts with the openings this process has not written yet. */
-function withPending(s: { id: string; openCount: number; lastOpenedAt: Date | null }) {
+export function withPending(s: { id: string; openCount: number; lastOpenedAt: Date | null }) {
 	const p = pendingOpens(s.id);
 	if (!p) return {};
 	return { openCount: s.openCount + p.count, lastOpenedAt: !s.lastOpenedAt || p.last > s.lastOpenedAt ? p.last : s.lastOpenedAt };
 }
 
+/** A link's state as the lists show it. */
+export function linkStatus(s: { revokedAt: Date | null; expiresAt: Date }, now = Date.now()) {
+	return s.revokedAt ? ('revoked' as const) : s.expiresAt.getTime() <= now ? ('expired' as const) : ('active' as const);
+}
+
 /** A revision's links as the API and the revision page list them. */
 export async function listShares(revisionId: string) {
 	const now = Date.now();
-	return (await sharesOfRevision(db, revisionId)).map((s) => ({
-		...s,
-		...withPending(s),
-		status: s.revokedAt ? ('revoked' as const) : s.expiresAt.getTime() <= now ? ('expired' as const) : ('active' as const)
-	}));
+	return (await sharesOfRevision(db, revisionId)).map((s) => ({ ...s, ...withPending(s), status: linkStatus(s, now) }));
 }
 
 /** Revokes a link at once; false when it was revoked already. */

@@ -71,21 +71,31 @@ export async function openShare(token: string, clientAddress: string, { count = 
 	return found;
 }
 
+/** Any share link, revision or axle: 404 when unknown or revoked, 410 when expired. */
+export function refuseClosedLink(share: { revokedAt: Date | null; expiresAt: Date } | null | undefined): void {
+	if (!share || share.revokedAt) error(404, { message: 'This link does not exist or was revoked.', code: 'not_found' });
+	if (share.expiresAt.getTime() <= Date.now()) {
+		error(410, { message: 'This link has expired. Ask the person who sent it for a new one.', code: 'expired' });
+	}
+}
+
+/** Any share link: 429 when one client opens it too often. */
+export function limitOpenings(shareId: string, clientAddress: string): void {
+	if (!allowLocal('shareOpen', `${shareId}:${clientAddress}`)) {
+		error(429, { message: 'This link was opened too often in a short time. Wait a few minutes and reload.', code: 'rate_limited' });
+	}
+}
+
 /** The link behind a token, not yet counted or rate-limited: 404 when unknown or revoked, 410 when expired. */
 export async function findShare(token: string): Promise<Opened> {
 	const found = await lookUp(hashOf(token));
-	if (!found || found.share.revokedAt) error(404, { message: 'This link does not exist or was revoked.', code: 'not_found' });
-	if (found.share.expiresAt.getTime() <= Date.now()) {
-		error(410, { message: 'This link has expired. Ask the person who sent it for a new one.', code: 'expired' });
-	}
-	return found;
+	refuseClosedLink(found?.share);
+	return found!;
 }
 
 /** The second half of openShare: 429 when one client opens the link too often, else counts the opening. */
 export function admitOpening(found: Opened, clientAddress: string, { count = true } = {}) {
-	if (!allowLocal('shareOpen', `${found.share.id}:${clientAddress}`)) {
-		error(429, { message: 'This link was opened too often in a short time. Wait a few minutes and reload.', code: 'rate_limited' });
-	}
+	limitOpenings(found.share.id, clientAddress);
 	if (count) {
 		const { revision, car, corner } = found;
 		recordShareOpen(found.share.id, found.share.teamId, { revisionId: revision.id, revision: revision.number, car: car.name, corner: corner.position });

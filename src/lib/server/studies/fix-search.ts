@@ -107,7 +107,7 @@ const CLEAR_WEIGHT = 100;
 /** The fit keeps this far (mm) beyond a volume's surface, so the fix found is clear, not flush against it. */
 const KEEP_MM = 0.2;
 /** A fix this close (mm) to a volume is pressed against it: the volume limits the fix. */
-export const LIMIT_MM = 0.5;
+const LIMIT_MM = 0.5;
 
 /** Runs the search; throws only for an input that cannot be solved as it is. */
 export function fixSearch(input: FixSearchInput): FixSearchResult {

@@ -6,7 +6,7 @@
 import { kindMembers, ROCKER_MEMBERS } from '../../kinds';
 import type { CornerModel } from '../kinematics/corner';
 import { depthOfSegment, surelyClear, type Volume, type WheelFrame } from '../kinematics/keep-out';
-import { F_TOE, N_FIELDS, SWEEP_HEAVE, SWEEP_STEER } from '../kinematics/measures';
+import { F_TOE, N_FIELDS, SWEEP_STEER } from '../kinematics/measures';
 import { OK } from '../kinematics/solve';
 import { gridCount, runSweep, SweepBuffer, type SweepSpec } from '../kinematics/sweep';
 import { DEG } from '../kinematics/constants';
@@ -196,9 +196,4 @@ export class PackagingCheck {
 		}
 		return true;
 	}
-}
-
-/** The heave sweep spec of the checks: travel grid, rack 0, points recorded. */
-export function heaveSpec(from: number, to: number, step: number): SweepSpec {
-	return { sweep: SWEEP_HEAVE, from, to, step, rack: 0, points: true };
 }
