@@ -69,6 +69,8 @@ test('an engineer uploads a scan, aligns it by three datums, fits the ball joint
 	// now in vehicle axes: the ball joint where it was built
 	await fitSphereAt(page, moved);
 	await expect(page.getByTestId('fit-result')).toContainText('radius 15.00 mm');
+	// fitted on the scan's own points read back from the bucket, not on the simplified preview
+	await expect(page.getByTestId('fit-result')).toContainText('full resolution');
 	await page.screenshot({ path: 'test-results/scan-view.png', fullPage: true });
 	await page.getByLabel('Point to assign').selectOption({ label: 'Lower ball joint' });
 	await page.getByRole('button', { name: 'Assign', exact: true }).click();

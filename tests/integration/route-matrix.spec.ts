@@ -14,6 +14,7 @@ import { createAxleShareLink, createShareLink } from '../../src/lib/server/db/qu
 import { createApiToken } from '../../src/lib/server/db/queries/users';
 import { PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { encodePreview } from '../../src/lib/mesh/preview';
+import { encodeTiles } from '../../src/lib/mesh/tiles';
 import { explorations, revisions, scans, studies, users } from '../../src/lib/server/db/schema';
 import { Client, DEMO_CAR_ID, DEMO_TEAM_ID, baseUrl, closeDb, freshAccount, testDb } from './helpers';
 
@@ -52,6 +53,11 @@ const DEMO_ONLY = PUBLIC; // /dev/*: demo mode is on in tests (LW_DEMO=true); of
 const NOT_FOUND = 'hhhhhhhhh';
 const GONE = 'ggggggggg';
 const SHARE_HOLDER = PUBLIC; // /s/{token}: the token is the permission
+
+/** Query strings that GET entries need to be answered 200 by an allowed caller. */
+const QUERIES: Record<string, string> = {
+	'GET /api/v1/scans/[scanId=id]/patch': '?x=0&y=0&z=0&r=0.2'
+};
 
 /** Every route entry of the tree: "METHOD /route/id" and "POST /route/id ?/action". */
 const TABLE: Record<string, string> = {
@@ -117,6 +123,7 @@ const TABLE: Record<string, string> = {
 	// no body: allowed callers get 400 (the scan is ready, not uploading)
 	'POST /api/v1/scans/[scanId=id]/cancel': TEAM_EDIT,
 	'GET /api/v1/scans/[scanId=id]/preview': TEAM_VIEW,
+	'GET /api/v1/scans/[scanId=id]/patch': TEAM_VIEW,
 	'PUT /api/v1/scans/[scanId=id]/alignment': TEAM_EDIT,
 	'POST /api/v1/scans/[scanId=id]/capture': TEAM_EDIT,
 	'GET /scans/[scanId=id]': TEAM_VIEW,
@@ -270,7 +277,7 @@ describe('route × role', () => {
 		return link.id;
 	}
 
-	/** A fresh ready scan of the demo car's front left with a one-triangle preview in the bucket (the local fake). */
+	/** A fresh ready scan of the demo car's front left with a one-triangle preview and its points in the bucket (the local fake). */
 	async function freshScanId() {
 		const id = crypto.randomUUID();
 		const objectKey = `teams/${DEMO_TEAM_ID}/scans/${id}/original.stl`;
@@ -278,6 +285,7 @@ describe('route × role', () => {
 		const s3 = new S3Client({ endpoint: process.env.S3_ENDPOINT, region: process.env.S3_REGION ?? 'us-east-1', forcePathStyle: true, credentials: { accessKeyId: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER', secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER' } });
 		const body = encodePreview({ positions: new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0]), indices: new Uint32Array([0, 1, 2]), bounds: { min: [0, 0, 0], max: [1, 1, 0] } });
 		await s3.send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET ?? 'linkwright-scans', Key: previewKey, Body: body }));
+		await s3.send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET ?? 'linkwright-scans', Key: `${objectKey}.points.lwpt`, Body: encodeTiles(new Float32Array([0, 0, 0, 1, 0, 0, 0, 1, 0])) }));
 		await testDb().insert(scans).values({ id, carId: DEMO_CAR_ID, cornerId: FRONT_LEFT, name: 'matrix.stl', format: 'stl', sizeBytes: 84, objectKey, previewKey, status: 'ready', unit: 'mm', stats: { triangles: 1 } });
 		return id;
 	}
@@ -307,7 +315,7 @@ describe('route × role', () => {
 	/** Sends one entry as one principal; returns status and Location. */
 	async function ask(entry: string, who: Principal) {
 		const [method, routeId, action] = entry.split(' ');
-		const target = (await concrete(routeId)) + (action ?? '');
+		const target = (await concrete(routeId)) + (action ?? QUERIES[entry] ?? '');
 		const isApi = routeId.startsWith('/api/');
 		const headers: Record<string, string> = {};
 		let body: string | undefined;

@@ -7,6 +7,7 @@ import { HeadObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { decodePreview } from '../../src/lib/mesh/preview';
+import { fitSphere } from '../../src/lib/fits';
 import { pointSources, scans } from '../../src/lib/server/db/schema';
 import { binaryStl, boxTriangles, cornerScan, SCAN_FRAME, toScanFile } from '../scan-files';
 import { Client, closeDb, testDb } from './helpers';
@@ -116,6 +117,31 @@ describe('upload, processing, alignment, capture, deletion', () => {
 		expect(mesh.indices.length / 3).toBeLessThanOrEqual(200_000);
 	});
 
+	test('a patch reads every full-resolution point near a pick, whatever the preview kept, and a sphere fits them', async () => {
+		const at = toScanFile(moved);
+		const r = 0.02; // metres: the 15 mm ball and nothing of the other balls
+		const query = (q: Record<string, number>) => new URLSearchParams(Object.entries(q).map(([k, v]) => [k, String(v)])).toString();
+		const res = await viewer.fetch(`/api/v1/scans/${scanId}/patch?${query({ x: at[0], y: at[1], z: at[2], r })}`);
+		expect(res.status).toBe(200);
+		expect(res.headers.get('x-lw-stride')).toBe('1');
+		const full = new Float32Array(await res.arrayBuffer());
+		const n = full.length / 3;
+		expect(Number(res.headers.get('x-lw-points-within'))).toBe(n);
+		// every vertex of the construction: 149 rings of 200 between the poles (tests/scan-files sphereTriangles)
+		expect(n).toBe(149 * 200 + 2);
+		// every vertex of the ball lies on it: Coope's fit recovers the construction to float32 rounding of metres
+		const f = fitSphere(Array.from(full, (v) => v * 1000));
+		expect(f.radius).toBeCloseTo(15, 2);
+		for (let k = 0; k < 3; k++) expect(Math.abs(f.centre[k] - at[k] * 1000)).toBeLessThan(0.01);
+		// the ball's parameters named when wrong; a ball wider than a quarter of the scan is refused
+		const missing = await viewer.fetch(`/api/v1/scans/${scanId}/patch?${query({ x: at[0], y: at[1], z: at[2] })}`);
+		expect(missing.status).toBe(400);
+		expect((await missing.json()).error.field).toBe('r');
+		const wide = await viewer.fetch(`/api/v1/scans/${scanId}/patch?${query({ x: at[0], y: at[1], z: at[2], r: 10 })}`);
+		expect(wide.status).toBe(400);
+		expect((await wide.json()).error.field).toBe('r');
+	});
+
 	test('three datum picks align the scan back onto the construction', async () => {
 		const picks = ['lower.front', 'lower.rear', 'upper.front'].map((name) => ({ name, at: toScanFile(P[name]) }));
 		const res = await engineer.json(`/api/v1/scans/${scanId}/alignment`, 'PUT', { method: 'datum', unit: 'm', picks });
@@ -148,13 +174,16 @@ describe('upload, processing, alignment, capture, deletion', () => {
 		expect((await bad.json()).error.field).toBe('points.strut.top');
 	});
 
-	test('deleting the scan removes its original and preview from the bucket; the revision keeps its source', async () => {
+	test('deleting the scan removes its original, preview and points from the bucket; the revision keeps its source', async () => {
 		const previewKey = (await row(scanId))!.previewKey!;
+		const pointsKey = `${objectKey}.points.lwpt`;
 		expect(await exists(previewKey)).toBe(true);
+		expect(await exists(pointsKey)).toBe(true);
 		expect((await viewer.fetch(`/api/v1/scans/${scanId}`, { method: 'DELETE' })).status).toBe(403);
 		expect((await engineer.fetch(`/api/v1/scans/${scanId}`, { method: 'DELETE' })).status).toBe(204);
 		expect(await exists(objectKey)).toBe(false);
 		expect(await exists(previewKey)).toBe(false);
+		expect(await exists(pointsKey)).toBe(false);
 		expect(await row(scanId)).toBeNull();
 		const [source] = await testDb().select().from(pointSources).where(eq(pointSources.scanName, 'corner-scan.stl'));
 		expect(source.scanId).toBeNull();

@@ -102,3 +102,14 @@ export const captureSchema = z.object({
 		.refine((p) => Object.keys(p).length > 0, 'must assign at least one point')
 });
 export type CaptureInput = z.infer<typeof captureSchema>;
+
+const queryNumber = (field: string) =>
+	z.coerce.number({ error: `${field} must be a number` }).refine(Number.isFinite, { error: `${field} must be a finite number` });
+
+/** GET /api/v1/scans/{id}/patch: a ball in the scan file's own coordinates and unit. */
+export const patchQuerySchema = z.object({
+	x: queryNumber('x'),
+	y: queryNumber('y'),
+	z: queryNumber('z'),
+	r: queryNumber('r').refine((v) => v > 0, { error: 'r must be greater than 0' })
+});

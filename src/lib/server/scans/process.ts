@@ -17,11 +17,22 @@ const WORKER_SECONDS = 10 * 60;
 /** Chunks posted to the worker and not yet parsed, at most. */
 const IN_FLIGHT = 4;
 
+interface Processed {
+	stats: ScanStats;
+	preview: Uint8Array;
+	tiles: Uint8Array;
+}
+
 let queue: Promise<unknown> = Promise.resolve();
 
 /** The preview's object key of a scan. */
 export function previewKeyOf(scan: Pick<Scan, 'objectKey'>) {
 	return `${scan.objectKey}.preview.lwpv`;
+}
+
+/** The object key of a scan's full-resolution points, binned for the fits (src/lib/mesh/tiles.ts). */
+export function tilesKeyOf(scan: Pick<Scan, 'objectKey'>) {
+	return `${scan.objectKey}.points.lwpt`;
 }
 
 /** Queues a scan's processing; resolves when it has finished (either way). */
@@ -32,24 +43,24 @@ export function processScan(scan: Scan): Promise<void> {
 }
 
 /** Streams the original into a worker; the figures and the preview's bytes, or a message. */
-async function inWorker(scan: Scan): Promise<{ stats: ScanStats; preview: Uint8Array } | { error: string }> {
+async function inWorker(scan: Scan): Promise<Processed | { error: string }> {
 	const object = await getObjectStream(scan.objectKey);
 	if (!object) return { error: 'the uploaded file is not in object storage any more' };
 	const worker = new Worker(code, { eval: true });
 	let acked = 0;
 	let sent = 0;
 	let wake: (() => void) | null = null;
-	const outcome = new Promise<{ stats: ScanStats; preview: Uint8Array } | { error: string }>((resolve) => {
+	const outcome = new Promise<Processed | { error: string }>((resolve) => {
 		const timer = setTimeout(() => resolve({ error: `processing took longer than ${WORKER_SECONDS / 60} minutes` }), WORKER_SECONDS * 1000);
-		const settle = (v: { stats: ScanStats; preview: Uint8Array } | { error: string }) => {
+		const settle = (v: Processed | { error: string }) => {
 			clearTimeout(timer);
 			resolve(v);
 		};
-		worker.on('message', (m: { type: string; stats?: ScanStats; preview?: Uint8Array; message?: string }) => {
+		worker.on('message', (m: { type: string; stats?: ScanStats; preview?: Uint8Array; tiles?: Uint8Array; message?: string }) => {
 			if (m.type === 'ack') {
 				acked++;
 				wake?.();
-			} else if (m.type === 'done') settle({ stats: m.stats!, preview: m.preview! });
+			} else if (m.type === 'done') settle({ stats: m.stats!, preview: m.preview!, tiles: m.tiles! });
 			else if (m.type === 'failed') settle({ error: m.message! });
 		});
 		worker.on('error', (e) => settle({ error: `processing failed: ${e.message}` }));
@@ -90,6 +101,7 @@ async function processNow(scan: Scan) {
 	if ('error' in result) return fail(scan, result.error);
 	const previewKey = previewKeyOf(scan);
 	try {
+		await putObject(tilesKeyOf(scan), result.tiles, 'application/octet-stream');
 		await putObject(previewKey, result.preview, 'application/octet-stream');
 	} catch (e) {
 		return fail(scan, `the preview could not be stored: ${e instanceof Error ? e.message : String(e)}`);
@@ -97,17 +109,17 @@ async function processNow(scan: Scan) {
 	const row = await moveScan(db, scan.id, ['processing'], {
 		status: 'ready',
 		previewKey,
-		stats: { ...result.stats, previewBytes: result.preview.length } as unknown as Record<string, unknown>,
+		stats: { ...result.stats, previewBytes: result.preview.length, pointsBytes: result.tiles.length } as unknown as Record<string, unknown>,
 		unit: result.stats.unitGuess,
 		error: null
 	});
 	// deleted (or swept) meanwhile: drop what this run stored
-	if (!row) await deleteObjects([scan.objectKey, previewKey]);
+	if (!row) await deleteObjects([scan.objectKey, previewKey, tilesKeyOf(scan)]);
 }
 
 /** Marks the scan failed with a message and deletes its objects: nothing half-stored. */
 async function fail(scan: Scan, message: string) {
-	await deleteObjects([scan.objectKey, previewKeyOf(scan)]).catch(() => undefined);
+	await deleteObjects([scan.objectKey, previewKeyOf(scan), tilesKeyOf(scan)]).catch(() => undefined);
 	await moveScan(db, scan.id, ['processing'], { status: 'failed', error: message });
 }
 
@@ -123,6 +135,6 @@ export async function sweepScans(force = false) {
 	const stale = await sweepStaleScans(db, PART_URL_SECONDS + 300, PROCESSING_SECONDS);
 	for (const s of stale) {
 		if (s.uploadId) await abortUpload(s.objectKey, s.uploadId).catch(() => undefined);
-		await deleteObjects([s.objectKey, s.previewKey, previewKeyOf(s)]).catch(() => undefined);
+		await deleteObjects([s.objectKey, s.previewKey, previewKeyOf(s), tilesKeyOf(s)]).catch(() => undefined);
 	}
 }

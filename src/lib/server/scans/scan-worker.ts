@@ -1,11 +1,13 @@
 // Worker-thread entry of scan processing: the main thread streams the original from the bucket into this thread
 // chunk by chunk; this thread parses it (src/lib/mesh/parse.ts), counts, bounds, guesses the unit and simplifies
-// a preview with meshoptimizer, then sends back the stats and the preview's bytes. One scan per worker.
+// a preview with meshoptimizer and bins every vertex at full resolution for the fits (src/lib/mesh/tiles.ts), then
+// sends back the stats, the preview's bytes and the points' bytes. One scan per worker.
 // Messages in: { type: 'start', format, size } · { type: 'chunk', bytes } · { type: 'end' };
-// out: { type: 'ack' } per chunk, then { type: 'done', stats, preview } or { type: 'failed', message }.
+// out: { type: 'ack' } per chunk, then { type: 'done', stats, preview, tiles } or { type: 'failed', message }.
 import { parentPort } from 'node:worker_threads';
 import { createParser, MeshParseError, type MeshFormat, type MeshParser } from '../../mesh/parse';
 import { simplifyForPreview } from '../../mesh/simplify';
+import { encodeTiles } from '../../mesh/tiles';
 
 let parser: MeshParser | null = null;
 
@@ -26,8 +28,9 @@ parentPort?.on('message', async (msg: { type: 'start'; format: MeshFormat; size:
 		else if (parser) {
 			const mesh = parser.end();
 			parser = null;
+			const tiles = encodeTiles(mesh.positions);
 			const { stats, preview } = await simplifyForPreview(mesh);
-			parentPort!.postMessage({ type: 'done', stats, preview }, [preview.buffer as ArrayBuffer]);
+			parentPort!.postMessage({ type: 'done', stats, preview, tiles }, [preview.buffer as ArrayBuffer, tiles.buffer as ArrayBuffer]);
 		}
 	} catch (e) {
 		fail(e);

@@ -16,7 +16,8 @@ import { saveRevision } from '$lib/server/corners/revisions';
 import { bestFit, datumTransform } from '$lib/server/import/fit';
 import { ImportError } from '$lib/server/import/errors';
 import type { Vec3 } from '$lib/vec';
-import { previewKeyOf, processScan } from './process';
+import { forgetPatchIndex } from './patch';
+import { previewKeyOf, processScan, tilesKeyOf } from './process';
 import { abortUpload, completeUpload, deleteObjects, partUrls, startUpload } from './storage';
 
 /** Stops with 400 naming the field. */
@@ -103,10 +104,11 @@ export async function cancelScan(scan: Scan) {
 	await deleteScanRow(db, scan.id);
 }
 
-/** Deletes a scan: its upload, its original and preview, then its row. */
+/** Deletes a scan: its upload, its original, preview and full-resolution points, then its row. */
 export async function removeScan(scan: Scan, car: Car, userId: string) {
 	if (scan.uploadId) await abortUpload(scan.objectKey, scan.uploadId);
-	await deleteObjects([scan.objectKey, scan.previewKey ?? previewKeyOf(scan)]);
+	await deleteObjects([scan.objectKey, scan.previewKey ?? previewKeyOf(scan), tilesKeyOf(scan)]);
+	forgetPatchIndex(scan.id);
 	await deleteScanRow(db, scan.id);
 	await recordAudit(db, {
 		teamId: car.teamId,

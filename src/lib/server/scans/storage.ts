@@ -127,3 +127,14 @@ export async function getObjectStream(key: string) {
 		throw e;
 	}
 }
+
+/** Bytes [start, end) of an object (an HTTP range read), or null when the object does not exist. */
+export async function getObjectRange(key: string, start: number, end: number): Promise<Uint8Array | null> {
+	try {
+		const out = await s3().send(new GetObjectCommand({ Bucket: Bucket(), Key: key, Range: `bytes=${start}-${end - 1}` }));
+		return await out.Body!.transformToByteArray();
+	} catch (e) {
+		if ((e as { name?: string }).name === 'NoSuchKey') return null;
+		throw e;
+	}
+}
