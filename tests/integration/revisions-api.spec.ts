@@ -238,3 +238,41 @@ describe('ride height as a new design position (issue 19)', () => {
 		expect(rev.geometry.points['lower.front'][2]).toBeCloseTo(stock.points['lower.front'][2] - 20, 9);
 	});
 });
+
+describe('joint angles (issue 19)', () => {
+	test('every ball joint and rod end through the sweeps; the engineer’s limits saved on the corner judge every revision', async () => {
+		const first = (await (await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label: 'for joint angles', note: '', geometry: stock })).json()).id;
+		const res = await viewer.json(`/api/v1/revisions/${first}/joint-angles`, 'POST', { heave: { from: -40, to: 40, step: 10 } });
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.sweeps).toEqual(['heave', 'roll', 'steer']);
+		const points = body.joints.map((j: { point: string }) => j.point);
+		expect(points).toEqual(expect.arrayContaining(['lower.outer', 'upper.outer', 'steer.inner', 'steer.outer']));
+		const upper = body.joints.find((j: { point: string }) => j.point === 'upper.outer');
+		expect(upper.sweeps[0].positions).toEqual([-40, -30, -20, -10, 0, 10, 20, 30, 40]);
+		expect(upper.limitSet).toBe(false);
+		// a viewer may not set limits; an engineer may, by point name
+		expect((await viewer.json(`/api/v1/corners/${cornerId}/joint-limits`, 'PUT', { joints: { 'upper.outer': { limit: 1 } } })).status).toBe(403);
+		const put = await engineer.json(`/api/v1/corners/${cornerId}/joint-limits`, 'PUT', { joints: { 'upper.outer': { limit: upper.max / 2 }, 'steer.outer': { axis: 'auto' } } });
+		expect(put.status).toBe(200);
+		// an entry that says nothing (auto, no limit) is not kept
+		expect((await put.json()).joints).toEqual({ 'upper.outer': { limit: upper.max / 2 } });
+		expect((await (await viewer.fetch(`/api/v1/corners/${cornerId}/joint-limits`)).json()).joints).toEqual({ 'upper.outer': { limit: upper.max / 2 } });
+		const judged = (await (await viewer.json(`/api/v1/revisions/${first}/joint-angles`, 'POST', { heave: { from: -40, to: 40, step: 10 } })).json()).joints.find((j: { point: string }) => j.point === 'upper.outer');
+		expect(judged).toMatchObject({ limitSet: true, limit: upper.max / 2, pass: false });
+		// a setting tried in the request, over the saved one, without saving it
+		const tried = (await (await viewer.json(`/api/v1/revisions/${first}/joint-angles`, 'POST', { heave: { from: -40, to: 40, step: 10 }, joints: { 'upper.outer': { limit: 45 } } })).json()).joints.find((j: { point: string }) => j.point === 'upper.outer');
+		expect(tried).toMatchObject({ limit: 45, pass: true });
+		// bad input names its field
+		for (const [path, body, field] of [
+			[`/api/v1/revisions/${first}/joint-angles`, { joints: { 'strut.top': { limit: 10 } } }, 'joints.strut.top'],
+			[`/api/v1/revisions/${first}/joint-angles`, { heave: { from: 10, to: 40, step: 5 } }, 'heave.from'],
+			[`/api/v1/revisions/${first}/joint-angles`, { joints: { 'upper.outer': { limit: 0 } } }, 'joints.upper.outer.limit'],
+			[`/api/v1/corners/${cornerId}/joint-limits`, { joints: { 'strut.top': { limit: 10 } } }, 'joints.strut.top']
+		] as const) {
+			const bad = await engineer.json(path, path.endsWith('joint-limits') ? 'PUT' : 'POST', body);
+			expect(bad.status, field).toBe(400);
+			expect((await bad.json()).error.field).toBe(field);
+		}
+	});
+});

@@ -146,3 +146,38 @@ export const rideHeightInput = z.object({
 	label: z.string().trim().max(120, 'at most 120 characters').optional(),
 	note: z.string().max(4000, 'at most 4000 characters').default('')
 });
+
+/** Joint names a limit may be set for: every kind's points, the rocker's and the spring's (a joint is at a point). */
+const jointPoint = z.string({ message: 'must be a point name' }).regex(/^[a-z_]+\.[a-z_]+$/, 'must be a point name such as steer.outer');
+
+/** One joint's limit (degrees of misalignment) and the axis of its stud or bolt. */
+export const jointSettingSchema = z.object({
+	limit: z.number({ message: 'must be a number (degrees)' }).gt(0, 'must be > 0°').max(60, 'must be ≤ 60°').optional(),
+	axis: z.enum(['auto', 'x', 'y', 'z'], { message: "must be 'auto', 'x', 'y' or 'z'" }).optional()
+});
+
+/** The joint settings of a corner: point name → setting. */
+export const jointSettingsSchema = z.record(jointPoint, jointSettingSchema).refine((r) => Object.keys(r).length <= 64, 'at most 64 joints');
+
+export const jointSettingsInput = z.object({ joints: jointSettingsSchema });
+
+const jointRange = (lo: number, hi: number, unit: string) =>
+	z
+		.object({
+			from: z.number({ message: `must be a number (${unit})` }).min(lo, `must be ≥ ${lo} ${unit}`).max(0, 'must be ≤ 0 (the range includes design)'),
+			to: z.number({ message: `must be a number (${unit})` }).min(0, 'must be ≥ 0 (the range includes design)').max(hi, `must be ≤ ${hi} ${unit}`),
+			step: z.number({ message: `must be a number (${unit})` }).positive('must be > 0')
+		})
+		.refine((t) => t.from < t.to, { path: ['from'], message: 'must be < to' })
+		.refine((t) => (t.to - t.from) / t.step + 1 <= MAX_ANALYSIS_POSITIONS, { path: ['step'], message: `gives more than ${MAX_ANALYSIS_POSITIONS} positions` });
+
+/** POST /api/v1/revisions/{id}/joint-angles: the sweeps (default: the solve command's) and settings over the corner's. */
+export const jointAnglesInput = z.object({
+	heave: jointRange(-200, 200, 'mm').optional(),
+	roll: jointRange(-10, 10, '°').optional(),
+	steer: jointRange(-200, 200, 'mm').optional(),
+	/** leave a sweep out (a rear toe link's rack travel is not a motion the car makes) */
+	sweeps: z.array(z.enum(['heave', 'roll', 'steer'], { message: "must be 'heave', 'roll' or 'steer'" })).min(1, 'pick at least one sweep').optional(),
+	/** settings tried over the corner's saved ones, without saving them */
+	joints: jointSettingsSchema.optional()
+});

@@ -115,6 +115,9 @@ export const corners = pgTable(
 		baselineRevisionId: uuid('baseline_revision_id').references((): AnyPgColumn => revisions.id, {
 			onDelete: 'set null'
 		}),
+		// Per joint (point name): the misalignment limit in degrees and the stud or bolt axis (issue 19); the engineer's
+		// settings, not geometry, so they live on the corner and every revision is judged by them.
+		jointSettings: jsonb('joint_settings').$type<Record<string, { limit?: number; axis?: 'auto' | 'x' | 'y' | 'z' }>>().notNull().default({}),
 		createdAt: created()
 	},
 	(t) => [

@@ -152,3 +152,8 @@ export async function setBaseline(db: Database, cornerId: string, revisionId: st
 export async function setCornerKind(db: Database, cornerId: string, kind: Corner['kind']) {
 	await db.update(corners).set({ kind }).where(eq(corners.id, cornerId));
 }
+
+/** Replaces the corner's joint settings (limits and axes per joint). */
+export async function setJointSettings(db: Database, cornerId: string, settings: Corner['jointSettings']) {
+	await db.update(corners).set({ jointSettings: settings }).where(eq(corners.id, cornerId));
+}

@@ -1,0 +1,1 @@
+ALTER TABLE "corners" ADD COLUMN "joint_settings" jsonb DEFAULT '{}'::jsonb NOT NULL;
