@@ -122,3 +122,32 @@ test('the engineer lowers the car 15 mm at one corner, reads the new static figu
 	await page.getByRole('button', { name: 'Save as new revision' }).click();
 	await expect(page.getByTestId('ride-height-saved')).toContainText(/Saved as r\d+/);
 });
+
+test('joint angles: an engineer reads every joint through the sweeps, tightens a limit, sees it judged and saves it', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	await page.getByRole('link', { name: 'Joint angles' }).click();
+	await expect(page.getByRole('heading', { name: 'Joint angles' })).toBeVisible();
+	await expect(page.getByTestId('caution')).toBeVisible();
+	const upper = page.locator('tr[data-joint="upper.outer"]');
+	await expect(upper).toBeVisible();
+	await expect(page.locator('tr[data-joint="steer.inner"]')).toContainText('rod end, tie rod');
+	await expect(page.getByTestId('joints-verdict')).toHaveText('Every joint within its limit');
+	// three charts: heave, roll and steer
+	await expect(page.getByRole('figure', { name: /^Joint angle in/ })).toHaveCount(3);
+	await expect(page.getByTestId('chart-joint-angle-in-heave')).toBeVisible();
+	const largest = Number((await upper.getByTestId('joint-max').textContent())!.replace('°', ''));
+	expect(largest).toBeGreaterThan(1);
+	await page.getByLabel('Limit of Upper ball joint (°)').fill('1');
+	await expect(upper.getByTestId('joint-judged')).toContainText(`over by ${(largest - 1).toFixed(2)}°`);
+	await expect(page.getByTestId('joints-verdict')).toContainText('1 over the limit: Upper ball joint');
+	await page.screenshot({ path: 'test-results/screens/joint-angles.png', fullPage: true });
+	await page.getByRole('button', { name: 'Save limits and axes for this corner' }).click();
+	await expect(page.getByTestId('joints-saved')).toContainText('Saved: 1 joint');
+	await page.reload();
+	await expect(page.getByLabel('Limit of Upper ball joint (°)')).toHaveValue('1');
+	// put the demo back as it was
+	await page.getByLabel('Limit of Upper ball joint (°)').fill('');
+	await page.getByRole('button', { name: 'Save limits and axes for this corner' }).click();
+	await expect(page.getByTestId('joints-saved')).toContainText('Saved: 0 joints');
+});
