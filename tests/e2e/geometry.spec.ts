@@ -151,3 +151,21 @@ test('joint angles: an engineer reads every joint through the sweeps, tightens a
 	await page.getByRole('button', { name: 'Save limits and axes for this corner' }).click();
 	await expect(page.getByTestId('joints-saved')).toContainText('Saved: 0 joints');
 });
+
+test('combined motions: bump steer at lock as a map, and heave × roll', async ({ page }) => {
+	await signIn(page, 'viewer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	await page.getByRole('link', { name: 'Combined motions' }).click();
+	await expect(page.getByRole('heading', { name: 'Combined motions' })).toBeVisible();
+	await expect(page.getByRole('figure', { name: 'Toe change over the travel' })).toBeVisible();
+	await expect(page.getByTestId('heat-map')).toHaveCount(2);
+	// the read-out from the keyboard: the design cell's change is zero
+	await page.getByTestId('heat-map').first().focus();
+	await page.keyboard.press('ArrowRight');
+	await expect(page.getByTestId('heat-map-readout').first()).toHaveText(/^Wheel travel 5.0 mm · Rack travel 0.0 mm → /);
+	await page.screenshot({ path: 'test-results/screens/maps-heave-steer.png', fullPage: true });
+	await page.getByRole('combobox', { name: 'Map' }).selectOption('heave_roll');
+	await page.getByRole('button', { name: 'Solve' }).click();
+	await expect(page.getByTestId('heat-map')).toHaveCount(3);
+	await expect(page.getByRole('figure', { name: 'Camber to the ground change' })).toBeVisible();
+});

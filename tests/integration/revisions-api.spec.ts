@@ -276,3 +276,29 @@ describe('joint angles (issue 19)', () => {
 		}
 	});
 });
+
+describe('combined-motion maps (issue 19)', () => {
+	test('wheel travel × rack travel and body heave × roll; ranges named when wrong', async () => {
+		const first = (await (await engineer.json(`/api/v1/corners/${cornerId}/revisions`, 'POST', { label: 'for maps', note: '', geometry: stock })).json()).id;
+		const res = await viewer.json(`/api/v1/revisions/${first}/map`, 'POST', { kind: 'heave_steer', heave: { from: -40, to: 40, step: 10 }, steer: { from: -20, to: 20, step: 10 } });
+		expect(res.status).toBe(200);
+		const map = await res.json();
+		expect(map.x).toEqual([-40, -30, -20, -10, 0, 10, 20, 30, 40]);
+		expect(map.y).toEqual([-20, -10, 0, 10, 20]);
+		// at no rack travel, the heave sweep's toe (the solve endpoint)
+		const heave = (await (await viewer.fetch(`/api/v1/revisions/${first}/solve?sweep=heave&from=-40&to=40&step=10`)).json()).samples;
+		expect(map.values.toe[2]).toEqual(heave.map((s: { toe: number }) => s.toe));
+		const roll = await viewer.json(`/api/v1/revisions/${first}/map`, 'POST', { kind: 'heave_roll', heave: { from: -20, to: 20, step: 10 }, roll: { from: -2, to: 2, step: 1 } });
+		expect(roll.status).toBe(200);
+		expect((await roll.json()).values.camber_ground).toHaveLength(5);
+		for (const [body, field] of [
+			[{ kind: 'heave_steer', heave: { from: -40, to: 40, step: 1 }, steer: { from: -20, to: 20, step: 10 } }, 'heave.step'],
+			[{ kind: 'heave_roll', heave: { from: -20, to: 20, step: 10 }, roll: { from: -20, to: 2, step: 1 } }, 'roll.from'],
+			[{ kind: 'sideways' }, 'kind']
+		] as const) {
+			const bad = await viewer.json(`/api/v1/revisions/${first}/map`, 'POST', body);
+			expect(bad.status, field).toBe(400);
+			expect((await bad.json()).error.field).toBe(field);
+		}
+	});
+});

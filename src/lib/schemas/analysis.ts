@@ -181,3 +181,32 @@ export const jointAnglesInput = z.object({
 	/** settings tried over the corner's saved ones, without saving them */
 	joints: jointSettingsSchema.optional()
 });
+
+/** Cells per side of a motion map, at most. */
+export const MAX_MAP_SIDE = 41;
+
+const mapRange = (lo: number, hi: number, unit: string) =>
+	z
+		.object({
+			from: z.number({ message: `must be a number (${unit})` }).min(lo, `must be ≥ ${lo} ${unit}`).max(hi, `must be ≤ ${hi} ${unit}`),
+			to: z.number({ message: `must be a number (${unit})` }).min(lo, `must be ≥ ${lo} ${unit}`).max(hi, `must be ≤ ${hi} ${unit}`),
+			step: z.number({ message: `must be a number (${unit})` }).positive('must be > 0')
+		})
+		.refine((t) => t.from < t.to, { path: ['from'], message: 'must be < to' })
+		.refine((t) => Math.abs((t.to - t.from) / t.step - Math.round((t.to - t.from) / t.step)) < 1e-9, { path: ['step'], message: 'must divide to − from' })
+		.refine((t) => (t.to - t.from) / t.step + 1 <= MAX_MAP_SIDE, { path: ['step'], message: `gives more than ${MAX_MAP_SIDE} positions` });
+
+/** POST /api/v1/revisions/{id}/map: toe and camber over wheel travel × rack travel, or × body roll. */
+export const motionMapInput = z.discriminatedUnion(
+	'kind',
+	[
+		z.object({ kind: z.literal('heave_steer'), heave: mapRange(-150, 150, 'mm'), steer: mapRange(-150, 150, 'mm') }),
+		z.object({
+			kind: z.literal('heave_roll'),
+			heave: mapRange(-150, 150, 'mm'),
+			roll: mapRange(-10, 10, '°'),
+			rack: z.number({ message: 'must be a number (mm)' }).min(-150, 'must be ≥ -150 mm').max(150, 'must be ≤ 150 mm').default(0)
+		})
+	],
+	{ message: "kind must be 'heave_steer' or 'heave_roll'" }
+);
