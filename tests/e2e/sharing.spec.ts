@@ -136,3 +136,33 @@ test('a viewer sees no share button and the API refuses with 403', async ({ page
 	expect(res.status()).toBe(403);
 	expect((await res.json()).error.code).toBe('forbidden');
 });
+
+test('the study report of a comparison prints to PDF with the points, what moved, the targets judged, every chart and the caution', async ({ page }) => {
+	await signIn(page, 'viewer@linkwright.test');
+	await page.goto('/corners/00000000-0000-4000-8000-0000000000f1');
+	await page.getByRole('link', { name: 'Study report' }).click();
+	const report = page.getByTestId('report');
+	await expect(report).toBeVisible();
+	// against the baseline r1 by default
+	await page.getByLabel('Revision reported').selectOption({ label: 'r2 rack moved' });
+	await expect(page.getByText('Set against r1')).toBeVisible();
+	await expect(page.locator('tr[data-point="steer.inner"]')).toContainText('-15.0');
+	await expect(page.locator('tr[data-point="lower.front"]')).toContainText('unchanged');
+	await expect(page.getByTestId('report-targets')).toContainText('not met');
+	await expect(page.getByTestId('report-joints')).toContainText('Upper ball joint');
+	// every measure of every sweep: heave, roll and steer
+	await expect(page.getByRole('figure', { name: 'Toe' })).toHaveCount(3);
+	await page.screenshot({ path: 'test-results/screens/study-report.png', fullPage: true });
+	await page.emulateMedia({ media: 'print' });
+	const pages = await pdfPages(await page.pdf({ format: 'A4', printBackground: true }));
+	const text = pages.map((p) => p.text).join('').replace(/\s+/g, '');
+	expect(pages.length).toBeGreaterThanOrEqual(3);
+	// A4, 595.3 × 841.9 pt (ISO 216)
+	expect(Math.abs(pages[0].width - 595.3)).toBeLessThan(2);
+	for (const words of ['study report', 'r2 rack moved', 'Set against r1', 'kinematic estimates', 'qualified fabricators', 'Tie rod, inner joint', 'Targets', 'Joint angles', 'Figures through heave', 'Roll-centre height', 'Camber to ground', 'Rack travel', 'ISO 8855']) {
+		expect(text, `the report holds ${words}`).toContain(words.replace(/\s+/g, ''));
+	}
+	expect(text).not.toContain('PrintorsaveasPDF');
+	// the charts' export buttons are for the screen
+	expect(text).not.toContain('PNGSVGCSV');
+});

@@ -114,6 +114,7 @@ const TABLE: Record<string, string> = {
 	'GET /corners/[cornerId=id]/joints': TEAM_VIEW,
 	'POST /api/v1/revisions/[revisionId=id]/map': TEAM_VIEW,
 	'GET /corners/[cornerId=id]/maps': TEAM_VIEW,
+	'GET /corners/[cornerId=id]/report': TEAM_VIEW,
 	'GET /corners/[cornerId=id]/ride-height': TEAM_VIEW,
 	'GET /api/v1/revisions/[revisionId=id]/shares': TEAM_SHARE,
 	'POST /api/v1/revisions/[revisionId=id]/shares': TEAM_SHARE,
