@@ -150,3 +150,25 @@ test('a solid rear axle edited on the page: a bad value is refused naming the fi
 	await expect(change).toContainText('Rear solid axle point panhard.axle');
 	await expect(change).toContainText('moved 10.0 mm');
 });
+
+test('ride height and rake: the front lowered more than the rear, every corner’s new figures and the rake, saved at once', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	const car = await (await page.request.post('/api/v1/cars', { data: { name: `Rake ${Date.now()}`, wheelbaseMm: 2600 } })).json();
+	const carId = car.id as string;
+	for (const [position, kind, name] of [['front_left', 'double_wishbone', 'single-seater-front-left'], ['rear_left', 'multi_link', 'single-seater-rear-left-five-link']]) {
+		const corner = await (await page.request.post(`/api/v1/cars/${carId}/corners`, { data: { position, kind } })).json();
+		expect((await page.request.post(`/api/v1/corners/${corner.id}/revisions`, { data: { label: 'stock', note: '', geometry: fixture(name) } })).status()).toBe(201);
+	}
+	await page.goto(`/cars/${carId}`);
+	await page.getByTestId('car-ride-height-link').click();
+	await expect(page.getByRole('heading', { name: 'Ride height and rake' })).toBeVisible();
+	await page.getByLabel('Front change (mm)').fill('-15');
+	await page.getByLabel('Rear change (mm)').fill('-5');
+	await page.getByRole('button', { name: 'Show the new design positions' }).click();
+	await expect(page.getByTestId('rake')).toContainText('nose down');
+	await expect(page.getByTestId('after-front_left-camber')).toBeVisible();
+	await expect(page.getByTestId('after-rear_left-camber')).toBeVisible();
+	await page.screenshot({ path: 'test-results/screens/car-ride-height.png', fullPage: true });
+	await page.getByRole('button', { name: 'Save a new revision of every changed corner' }).click();
+	await expect(page.getByTestId('car-ride-height-saved')).toContainText('Saved 2 revisions');
+});

@@ -302,3 +302,71 @@ describe('combined-motion maps (issue 19)', () => {
 		}
 	});
 });
+
+describe('ride height and rake of the whole car (issue 19)', () => {
+	test('front −15, rear −5: each corner as its own ride-height change, the rake over the wheelbase, saved all at once', async () => {
+		const car = (await (await engineer.json('/api/v1/cars', 'POST', { name: 'Rake car', wheelbaseMm: 2500 })).json()).id;
+		const fl = (await (await engineer.json(`/api/v1/cars/${car}/corners`, 'POST', { position: 'front_left', kind: 'double_wishbone' })).json()).id;
+		const fr = (await (await engineer.json(`/api/v1/cars/${car}/corners`, 'POST', { position: 'front_right', kind: 'double_wishbone' })).json()).id;
+		const rl = (await (await engineer.json(`/api/v1/cars/${car}/corners`, 'POST', { position: 'rear_left', kind: 'double_wishbone' })).json()).id;
+		// the rear-left corner: the front-left's points moved 2500 mm back (an invented layout for the test)
+		const back = structuredClone(stock);
+		for (const p of Object.values(back.points) as number[][]) p[0] -= 2500;
+		delete back.vehicle;
+		const revs: Record<string, string> = {};
+		for (const [id, g] of [[fl, stock], [fr, right], [rl, back]] as const) {
+			const made = await engineer.json(`/api/v1/corners/${id}/revisions`, 'POST', { label: 'stock', note: '', geometry: g });
+			expect(made.status).toBe(201);
+			revs[id] = (await made.json()).id;
+		}
+		const res = await viewer.json(`/api/v1/cars/${car}/ride-height`, 'POST', { front: -15, rear: -5 });
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(body.corners.map((c: { corner: { id: string } }) => c.corner.id).sort(), JSON.stringify(body).slice(0, 400)).toEqual([fl, fr, rl].sort());
+		// nose down by atan(10 / 2500)
+		expect(body.noseDown).toBeCloseTo((Math.atan(10 / 2500) * 180) / Math.PI, 9);
+		expect(body.wheelbaseFrom).toBe('car');
+		for (const [id, change] of [[fl, -15], [fr, -15], [rl, -5]] as const) {
+			const c = body.corners.find((x: { corner: { id: string } }) => x.corner.id === id);
+			const single = await (await viewer.json(`/api/v1/revisions/${revs[id]}/ride-height`, 'POST', { change })).json();
+			expect(c.change).toBe(change);
+			expect(c.after).toEqual(single.after);
+		}
+		// a viewer may not save; an engineer saves one revision per corner together
+		expect((await viewer.json(`/api/v1/cars/${car}/ride-height`, 'POST', { front: -15, rear: -5, save: true })).status).toBe(403);
+		const saved = await engineer.json(`/api/v1/cars/${car}/ride-height`, 'POST', { front: -15, rear: -5, save: true });
+		expect(saved.status).toBe(201);
+		const { saved: list } = await saved.json();
+		expect(list.map((s: { cornerId: string }) => s.cornerId).sort()).toEqual([fl, fr, rl].sort());
+		const rev = await (await viewer.fetch(`/api/v1/revisions/${list.find((s: { cornerId: string }) => s.cornerId === rl).id}`)).json();
+		expect(rev.label).toBe('ride height front −15, rear −5 mm');
+		expect(rev.geometry.points['lower.front'][2]).toBeCloseTo(back.points['lower.front'][2] - 5, 9);
+		// both 0, or beyond 100 mm: named
+		for (const [payload, field] of [[{ front: 0, rear: 0 }, 'front'], [{ front: -10, rear: -150 }, 'rear']] as const) {
+			const bad = await engineer.json(`/api/v1/cars/${car}/ride-height`, 'POST', payload);
+			expect(bad.status).toBe(400);
+			expect((await bad.json()).error.field).toBe(field);
+		}
+	});
+
+	test('a change one corner cannot reach saves nothing on any corner', async () => {
+		const car = (await (await engineer.json('/api/v1/cars', 'POST', { name: 'Too high car' })).json()).id;
+		const fl = (await (await engineer.json(`/api/v1/cars/${car}/corners`, 'POST', { position: 'front_left', kind: 'double_wishbone' })).json()).id;
+		const fr = (await (await engineer.json(`/api/v1/cars/${car}/corners`, 'POST', { position: 'front_right', kind: 'double_wishbone' })).json()).id;
+		// the left upper arm shortened to about 45 mm: it cannot reach 100 mm of rebound
+		const short = structuredClone(stock);
+		short.points['upper.front'][1] = 590;
+		short.points['upper.rear'][1] = 590;
+		expect((await engineer.json(`/api/v1/corners/${fl}/revisions`, 'POST', { label: 'short arm', note: '', geometry: short })).status).toBe(201);
+		expect((await engineer.json(`/api/v1/corners/${fr}/revisions`, 'POST', { label: 'stock', note: '', geometry: right })).status).toBe(201);
+		const bad = await engineer.json(`/api/v1/cars/${car}/ride-height`, 'POST', { front: 100, rear: 0, save: true });
+		expect(bad.status).toBe(400);
+		const { error } = await bad.json();
+		expect(error.field).toBe('front');
+		expect(error.message).toMatch(/front left/);
+		for (const id of [fl, fr]) {
+			const revs = await (await engineer.fetch(`/api/v1/corners/${id}/revisions`)).json();
+			expect((revs.revisions ?? revs).length).toBe(1);
+		}
+	});
+});

@@ -210,3 +210,13 @@ export const motionMapInput = z.discriminatedUnion(
 	],
 	{ message: "kind must be 'heave_steer' or 'heave_roll'" }
 );
+
+/** POST /api/v1/cars/{id}/ride-height: the front and rear corners lowered (−) or raised (+), mm. */
+export const carRideHeightInput = z
+	.object({
+		front: z.number({ message: 'must be a number (mm, − = lower)' }).min(-100, 'must be ≥ -100 mm').max(100, 'must be ≤ 100 mm'),
+		rear: z.number({ message: 'must be a number (mm, − = lower)' }).min(-100, 'must be ≥ -100 mm').max(100, 'must be ≤ 100 mm'),
+		save: z.boolean({ message: 'must be true or false' }).default(false),
+		note: z.string().max(4000, 'at most 4000 characters').default('')
+	})
+	.refine((v) => v.front !== 0 || v.rear !== 0, { path: ['front'], message: 'front and rear are both 0 (no change)' });

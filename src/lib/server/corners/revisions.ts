@@ -94,3 +94,35 @@ export async function saveRevision(input: SaveRevision) {
 	const supersededBy = before && parentId && before.id !== parentId ? before.number : null;
 	return { revision, supersededBy };
 }
+
+/**
+ * Saves one new revision on each of several corners of a car, all in one transaction: every revision or none (a
+ * change made to the whole car, such as its ride height, is never half-saved).
+ */
+export async function saveRevisionsTogether(inputs: SaveRevision[]) {
+	for (const input of inputs) checkCornerFits(input.geometry, input.corner, `corners.${input.corner.position}`);
+	return db.transaction(async (tx) => {
+		const out = [];
+		for (const input of inputs) {
+			const { car, corner, userId, geometry } = input;
+			const parentId = input.parentId ?? (await latestRevision(tx as unknown as typeof db, corner.id))?.id ?? null;
+			const revision = await appendRevision(
+				tx as unknown as typeof db,
+				{ cornerId: corner.id, kind: geometry.kind, geometry, label: input.label, note: input.note, parentId, authorId: userId },
+				undefined,
+				async (inner, row) => {
+					await recordAudit(inner, {
+						teamId: car.teamId,
+						actorId: userId,
+						action: 'revision.created',
+						subjectType: 'revision',
+						subjectId: row.id,
+						detail: { corner: corner.position, number: row.number, source: input.source, car: car.name }
+					});
+				}
+			);
+			out.push({ corner, revision });
+		}
+		return out;
+	});
+}
