@@ -40,3 +40,52 @@ export function sizeLabels(sprites: Iterable<Sprite>, perPx: number): void {
 		s.scale.set(h * s.userData.aspect, h, 1);
 	}
 }
+
+/** A label's box on screen in CSS pixels: top-left corner, width and height (y grows downwards). */
+export interface LabelBox {
+	x: number;
+	y: number;
+	w: number;
+	h: number;
+}
+
+/** Do two boxes overlap (touching edges, closer than `gap`, count as overlapping)? */
+export function overlaps(a: LabelBox, b: LabelBox, gap = 0): boolean {
+	return a.x < b.x + b.w + gap && b.x < a.x + a.w + gap && a.y < b.y + b.h + gap && b.y < a.y + a.h + gap;
+}
+
+/**
+ * Screen-space de-overlap: places the boxes one after another in the order given (the first never moves), each
+ * at the first of a few nearby offsets (down or up by half a label height at a time, then left or right of its
+ * anchor) where it clears every box placed before it by `gap` px; if none clears, the offset with the least
+ * overlapping area. Returns each box's offset in CSS pixels. Pure: the 3-D view calls it on every draw.
+ */
+export function spreadLabels(boxes: LabelBox[], gap = 2): { dx: number; dy: number }[] {
+	const placed: LabelBox[] = [];
+	const out: { dx: number; dy: number }[] = [];
+	for (const b of boxes) {
+		const candidates: [number, number][] = [[0, 0]];
+		for (let k = 1; k <= 6; k++) candidates.push([0, (k * b.h) / 2], [0, (-k * b.h) / 2]);
+		for (let k = 1; k <= 2; k++) candidates.push([k * (b.w + gap), 0], [-k * (b.w + gap), 0]);
+		let best: [number, number] = [0, 0];
+		let bestArea = Infinity;
+		for (const [dx, dy] of candidates) {
+			const moved = { ...b, x: b.x + dx, y: b.y + dy };
+			let area = 0;
+			for (const p of placed) {
+				if (!overlaps(moved, p, gap)) continue;
+				const w = Math.min(moved.x + moved.w, p.x + p.w) - Math.max(moved.x, p.x) + gap;
+				const h = Math.min(moved.y + moved.h, p.y + p.h) - Math.max(moved.y, p.y) + gap;
+				area += Math.max(0, w) * Math.max(0, h);
+			}
+			if (area < bestArea) {
+				best = [dx, dy];
+				bestArea = area;
+				if (area === 0) break;
+			}
+		}
+		placed.push({ ...b, x: b.x + best[0], y: b.y + best[1] });
+		out.push({ dx: best[0], dy: best[1] });
+	}
+	return out;
+}
