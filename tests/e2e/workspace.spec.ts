@@ -134,3 +134,25 @@ test('on a tablet the workspace stays usable: side by side in landscape, charts 
 	expect(toe.y).toBeLessThan(history.y); // before the revision history
 	await page.screenshot({ path: 'test-results/screens/workspace-tablet-portrait.png', fullPage: true });
 });
+
+test('one crosshair for all the workspace charts: hovering a travel in the toe chart shows it in the camber chart', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	const toe = page.getByTestId('chart-toe');
+	await expect(toe.locator('path[data-series="draft"]')).toHaveCount(1);
+	const camberX = page.getByTestId('chart-camber-readout').getByTestId('readout-x');
+	// before: every read-out at the design position
+	await expect(page.getByTestId('chart-camber-readout')).toContainText('Design');
+	await toe.scrollIntoViewIfNeeded();
+	const box = (await toe.boundingBox())!;
+	await page.mouse.move(box.x + box.width * 0.8, box.y + box.height * 0.5);
+	const toeX = await page.getByTestId('chart-toe-readout').getByTestId('readout-x').textContent();
+	expect(Number.parseFloat((toeX ?? '').replace('\u2212', '-'))).toBeGreaterThan(10);
+	await expect(page.getByTestId('chart-camber-readout')).toContainText('At');
+	await expect(camberX).toHaveText(toeX!);
+	// the crosshair line is drawn in the other chart too
+	await expect(page.getByTestId('chart-camber').locator('line.lw-cross')).toHaveCount(1);
+	// leaving the chart hides it everywhere
+	await page.mouse.move(0, 0);
+	await expect(page.getByTestId('chart-camber-readout')).toContainText('Design');
+});
