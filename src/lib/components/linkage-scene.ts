@@ -9,7 +9,7 @@
 import { AmbientLight, CylinderGeometry, DirectionalLight, Group, OctahedronGeometry, OrthographicCamera, Scene, SphereGeometry, Sprite, SRGBColorSpace, Vector3, WebGLRenderer, type BufferGeometry } from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import { disposeTree, readPalette, scratchA, toWorld, type SharedGeometry } from './linkage/basics';
-import { AxesTriad } from './linkage/gizmo';
+import { AxesTriad, triadBox } from './linkage/gizmo';
 import { buildGround } from './linkage/ground';
 import { LABEL_PX, sizeLabels, spreadLabels } from './linkage/labels';
 import { RevisionRig, type Look } from './linkage/rig';
@@ -146,7 +146,7 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			const y = ((1 - onScreen.y) / 2) * height - (1 - s.center.y) * h;
 			return { x, y, w, h };
 		});
-		const offsets = spreadLabels(boxes);
+		const offsets = spreadLabels(boxes, 2, [triadBox(height)], { w: width, h: height });
 		list.forEach((s, i) => {
 			const base = (s.userData.anchor?.position as Vector3 | undefined) ?? (s.userData.base as Vector3);
 			s.position.copy(base).addScaledVector(right, offsets[i].dx * perPx).addScaledVector(up, -offsets[i].dy * perPx);

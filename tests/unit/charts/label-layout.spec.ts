@@ -66,3 +66,27 @@ describe('spreadLabels', () => {
 		expect(overlaps(a, b, 1)).toBe(true);
 	});
 });
+
+describe('spreadLabels with a fixed box', () => {
+	it('moves a label off the axes triad, which stays where it is', () => {
+		const triad = { x: 24, y: 200, w: 130, h: 124 };
+		const rc = { x: 80, y: 260, w: 30, h: 18 }; // anchored inside the triad's corner
+		const [o] = spreadLabels([rc], 2, [triad]);
+		expect(allApart([triad, { ...rc, x: rc.x + o.dx, y: rc.y + o.dy }])).toBe(true);
+	});
+});
+
+describe('spreadLabels within the view', () => {
+	it('does not push a label out of the view to clear another', () => {
+		const view = { w: 390, h: 366 };
+		const triad = { x: 24, y: 200, w: 130, h: 124 };
+		const centreline = { x: 4, y: 270, w: 62, h: 18 }; // ends at the line near the left edge, over the triad
+		const [o] = spreadLabels([centreline], 2, [triad], view);
+		const b = { ...centreline, x: centreline.x + o.dx, y: centreline.y + o.dy };
+		expect(b.x).toBeGreaterThanOrEqual(0);
+		expect(b.x + b.w).toBeLessThanOrEqual(view.w);
+		expect(b.y).toBeGreaterThanOrEqual(0);
+		expect(b.y + b.h).toBeLessThanOrEqual(view.h);
+		expect(allApart([triad, b])).toBe(true);
+	});
+});

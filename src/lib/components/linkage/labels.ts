@@ -56,22 +56,29 @@ export function overlaps(a: LabelBox, b: LabelBox, gap = 0): boolean {
 
 /**
  * Screen-space de-overlap: places the boxes one after another in the order given (the first never moves), each
- * at the first of a few nearby offsets (down or up by half a label height at a time, then left or right of its
- * anchor) where it clears every box placed before it by `gap` px; if none clears, the offset with the least
- * overlapping area. Returns each box's offset in CSS pixels. Pure: the 3-D view calls it on every draw.
+ * at the nearest of a set of offsets (up or down by half a label height at a time, and a label's width or two to
+ * either side) where it clears every box placed before it by `gap` px; if none clears, the offset with the least
+ * overlapping area. `fixed` boxes (the axes triad's inset) are kept clear of and never move; with `bounds` (the
+ * view's size) a place partly outside the view counts its outside part as overlap. Returns each box's
+ * offset in CSS pixels. Pure: the 3-D view calls it on every draw.
  */
-export function spreadLabels(boxes: LabelBox[], gap = 2): { dx: number; dy: number }[] {
-	const placed: LabelBox[] = [];
+export function spreadLabels(boxes: LabelBox[], gap = 2, fixed: LabelBox[] = [], bounds?: { w: number; h: number }): { dx: number; dy: number }[] {
+	const placed: LabelBox[] = [...fixed];
 	const out: { dx: number; dy: number }[] = [];
 	for (const b of boxes) {
-		const candidates: [number, number][] = [[0, 0]];
-		for (let k = 1; k <= 6; k++) candidates.push([0, (k * b.h) / 2], [0, (-k * b.h) / 2]);
-		for (let k = 1; k <= 2; k++) candidates.push([k * (b.w + gap), 0], [-k * (b.w + gap), 0]);
+		// nearby places, nearest first (up or down by half a label height at a time, a label's width to either side)
+		const candidates: [number, number][] = [];
+		for (let k = -16; k <= 16; k++) for (const c of [0, 1, -1, 2, -2]) candidates.push([c * (b.w + gap), (k * b.h) / 2]);
+		candidates.sort((p, q) => Math.hypot(p[0], p[1]) - Math.hypot(q[0], q[1]) || Math.abs(p[0]) - Math.abs(q[0]));
 		let best: [number, number] = [0, 0];
 		let bestArea = Infinity;
 		for (const [dx, dy] of candidates) {
 			const moved = { ...b, x: b.x + dx, y: b.y + dy };
 			let area = 0;
+			if (bounds) {
+				const inside = Math.max(0, Math.min(moved.x + moved.w, bounds.w) - Math.max(moved.x, 0)) * Math.max(0, Math.min(moved.y + moved.h, bounds.h) - Math.max(moved.y, 0));
+				area += moved.w * moved.h - inside;
+			}
 			for (const p of placed) {
 				if (!overlaps(moved, p, gap)) continue;
 				const w = Math.min(moved.x + moved.w, p.x + p.w) - Math.max(moved.x, p.x) + gap;
