@@ -151,6 +151,8 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 			const base = (s.userData.anchor?.position as Vector3 | undefined) ?? (s.userData.base as Vector3);
 			s.position.copy(base).addScaledVector(right, offsets[i].dx * perPx).addScaledVector(up, -offsets[i].dy * perPx);
 		});
+		// where the labels were drawn (CSS px in the canvas), for tests: [text, x, y, w, h]
+		canvas.dataset.labels = JSON.stringify(list.map((s, i) => [s.userData.text, ...[boxes[i].x + offsets[i].dx, boxes[i].y + offsets[i].dy, boxes[i].w, boxes[i].h].map((v) => Math.round(v))]));
 	}
 
 	function applyFrustum() {

@@ -90,3 +90,14 @@ describe('spreadLabels within the view', () => {
 		expect(allApart([triad, b])).toBe(true);
 	});
 });
+
+describe('spreadLabels leaves a clear label where it is', () => {
+	it('inside the view, clear of the others (floating-point edges do not count as overlap)', () => {
+		// the side view of the demo corner: the roll centre's and the instant centre's labels 40 px apart
+		const boxes = [
+			{ x: 194.4826535756691, y: 248.77001533162579, w: 22.135135135135133, h: 18.2 },
+			{ x: 194.48265357566902, y: 209.40068717655035, w: 33.94054054054054, h: 18.2 }
+		];
+		expect(spreadLabels(boxes, 2, [{ x: 24, y: 215, w: 130, h: 124 }], { w: 389, h: 366 })).toEqual([{ dx: 0, dy: 0 }, { dx: 0, dy: 0 }]);
+	});
+});

@@ -29,6 +29,7 @@ export function makeLabel(text: string, color: Color, registry: Set<Sprite>): Sp
 	sprite.center.set(0, 0.5); // anchored at the text's left edge
 	sprite.renderOrder = 10;
 	sprite.userData.aspect = canvas.width / canvas.height;
+	sprite.userData.text = text;
 	registry.add(sprite);
 	return sprite;
 }
@@ -77,7 +78,8 @@ export function spreadLabels(boxes: LabelBox[], gap = 2, fixed: LabelBox[] = [],
 			let area = 0;
 			if (bounds) {
 				const inside = Math.max(0, Math.min(moved.x + moved.w, bounds.w) - Math.max(moved.x, 0)) * Math.max(0, Math.min(moved.y + moved.h, bounds.h) - Math.max(moved.y, 0));
-				area += moved.w * moved.h - inside;
+				// (less than a hundredth of a pixel is rounding, not overlap)
+				area += Math.max(0, moved.w * moved.h - inside - 0.01);
 			}
 			for (const p of placed) {
 				if (!overlaps(moved, p, gap)) continue;
