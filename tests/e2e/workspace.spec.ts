@@ -179,6 +179,11 @@ test('a corner with many revisions: the history pages and searches, the overlay 
 	await page.getByTestId('revision-pager').getByRole('button', { name: 'Older' }).click();
 	await expect(history.locator('li[data-revision]')).toHaveCount(6);
 	await expect(history.locator('li[data-revision]').last()).toHaveAttribute('data-revision', '1');
+	// one request a page: nothing more is asked once the page is shown
+	let asked = 0;
+	page.on('request', (r) => r.url().includes(`/api/v1/corners/${corner.id}/revisions`) && asked++);
+	await page.waitForTimeout(1000);
+	expect(asked).toBe(0);
 	// a search by the note's words
 	await page.getByTestId('revision-search').fill('bump steer');
 	await expect(history.locator('li[data-revision]')).toHaveCount(1);
