@@ -18,6 +18,7 @@ const BENCHES: [string, () => Promise<Bench>][] = [
 	['tolerance', () => import('./tolerance')],
 	['workspace', () => import('./workspace')],
 	['car-page', () => import('./car-page')],
+	['corner-page', () => import('./corner-page')],
 	['sharing', () => import('./sharing')],
 	['share-load', () => import('./share-load')],
 	['scan', () => import('./scan')],
@@ -25,7 +26,7 @@ const BENCHES: [string, () => Promise<Bench>][] = [
 ];
 
 /** Parts that drive the built app in Chromium against the test database. */
-const IN_BROWSER = ['workspace', 'car-page', 'sharing', 'scan'];
+const IN_BROWSER = ['workspace', 'car-page', 'corner-page', 'sharing', 'scan'];
 /** Parts that drive the built app over HTTP against the test database (no browser). */
 const OVER_HTTP = ['share-load'];
 /** Parts that need the test database only. */

@@ -137,3 +137,32 @@ test('without WebGL the view says so instead of failing', async ({ page }) => {
 	await expect(page.getByRole('button', { name: 'Front view, looking rearward' })).toBeDisabled();
 	expect(problems).toEqual([]);
 });
+
+test('no two labels overlap in any preset view, and the labels in view stay inside it', async ({ page }) => {
+	// A 390 px wide view brings the roll centre, the instant centre, the centreline and the axes triad close together.
+	await page.setViewportSize({ width: 390, height: 844 });
+	await page.goto('/dev/linkage');
+	const canvas = page.getByTestId('linkage-canvas');
+	await expect(page.getByRole('button', { name: 'Front view, looking rearward' })).toBeEnabled();
+	type Placed = [string, number, number, number, number];
+	for (const name of ['Front view, looking rearward', 'Side view, from outboard', 'Top view, forward up', 'Three-quarter 3-D view']) {
+		const before = await canvas.getAttribute('data-draws');
+		await page.getByRole('button', { name }).click();
+		await expect.poll(() => canvas.getAttribute('data-draws')).not.toBe(before);
+		await page.waitForTimeout(400); // the preset's last frame
+		const box = (await canvas.boundingBox())!;
+		const labels = JSON.parse((await canvas.getAttribute('data-labels')) ?? '[]') as Placed[];
+		expect(labels.length, name).toBeGreaterThan(0);
+		// only the labels whose anchor is in view can be kept apart; an instant centre far outside the picture is not drawn on it
+		const shown = labels.filter(([, x, y, w, h]) => x + w > 0 && x < box.width && y + h > 0 && y < box.height);
+		for (let i = 0; i < shown.length; i++)
+			for (let j = i + 1; j < shown.length; j++) {
+				const [a, ax, ay, aw, ah] = shown[i];
+				const [b, bx, by, bw, bh] = shown[j];
+				// axis-aligned boxes are apart when they are apart on one axis (separating axis theorem)
+				const apart = ax + aw <= bx || bx + bw <= ax || ay + ah <= by || by + bh <= ay;
+				expect(apart, `${name}: ${a} and ${b} overlap`).toBe(true);
+			}
+		await page.screenshot({ path: `test-results/screens/linkage-labels-${name.split(' ')[0].toLowerCase()}-390.png` });
+	}
+});

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { expect, test, type Page } from '@playwright/test';
 import { signIn } from './helpers';
 
@@ -133,4 +134,74 @@ test('on a tablet the workspace stays usable: side by side in landscape, charts 
 	expect(t2.y + t2.height).toBeLessThan(c2.y); // the 3-D view and charts follow the table
 	expect(toe.y).toBeLessThan(history.y); // before the revision history
 	await page.screenshot({ path: 'test-results/screens/workspace-tablet-portrait.png', fullPage: true });
+});
+
+test('one crosshair for all the workspace charts: hovering a travel in the toe chart shows it in the camber chart', async ({ page }) => {
+	await signIn(page, 'engineer@linkwright.test');
+	await page.goto(FRONT_LEFT);
+	const toe = page.getByTestId('chart-toe');
+	await expect(toe.locator('path[data-series="draft"]')).toHaveCount(1);
+	const camberX = page.getByTestId('chart-camber-readout').getByTestId('readout-x');
+	// before: every read-out at the design position
+	await expect(page.getByTestId('chart-camber-readout')).toContainText('Design');
+	await toe.scrollIntoViewIfNeeded();
+	const box = (await toe.boundingBox())!;
+	await page.mouse.move(box.x + box.width * 0.8, box.y + box.height * 0.5);
+	const toeX = await page.getByTestId('chart-toe-readout').getByTestId('readout-x').textContent();
+	expect(Number.parseFloat((toeX ?? '').replace('\u2212', '-'))).toBeGreaterThan(10);
+	await expect(page.getByTestId('chart-camber-readout')).toContainText('At');
+	await expect(camberX).toHaveText(toeX!);
+	// the crosshair line is drawn in the other chart too
+	await expect(page.getByTestId('chart-camber').locator('line.lw-cross')).toHaveCount(1);
+	// leaving the chart hides it everywhere
+	await page.mouse.move(0, 0);
+	await expect(page.getByTestId('chart-camber-readout')).toContainText('Design');
+});
+
+test('a corner with many revisions: the history pages and searches, the overlay picker finds any revision, the charts are in view at 1440 × 900', async ({ page }) => {
+	test.setTimeout(150_000);
+	await page.setViewportSize({ width: 1440, height: 900 });
+	await signIn(page, 'engineer@linkwright.test');
+	const geometry = JSON.parse(readFileSync('fixtures/club-fwd-front-left.json', 'utf8'));
+	const car = await (await page.request.post('/api/v1/cars', { data: { name: `Many revisions ${Date.now()}` } })).json();
+	const corner = await (await page.request.post(`/api/v1/cars/${car.id}/corners`, { data: { position: 'front_left', kind: 'double_wishbone' } })).json();
+	const ids: string[] = [];
+	for (let i = 1; i <= 26; i++) {
+		const res = await page.request.post(`/api/v1/corners/${corner.id}/revisions`, { data: { label: i === 4 ? 'old bracket' : `run ${i}`, note: i === 2 ? 'Bump steer at full lock' : '', geometry } });
+		ids.push((await res.json()).id);
+	}
+	await page.goto(`/corners/${corner.id}`);
+	const history = page.getByRole('list', { name: 'Revision history' });
+	// one page of 20 (newest first), not the whole list
+	await expect(history.locator('li[data-revision]')).toHaveCount(20);
+	await expect(history.locator('li[data-revision]').first()).toHaveAttribute('data-revision', '26');
+	await expect(page.getByTestId('revision-pager')).toContainText('1–20 of 26');
+	await page.getByTestId('revision-pager').getByRole('button', { name: 'Older' }).click();
+	await expect(history.locator('li[data-revision]')).toHaveCount(6);
+	await expect(history.locator('li[data-revision]').last()).toHaveAttribute('data-revision', '1');
+	// one request a page: nothing more is asked once the page is shown
+	let asked = 0;
+	page.on('request', (r) => r.url().includes(`/api/v1/corners/${corner.id}/revisions`) && asked++);
+	await page.waitForTimeout(1000);
+	expect(asked).toBe(0);
+	// a search by the note's words
+	await page.getByTestId('revision-search').fill('bump steer');
+	await expect(history.locator('li[data-revision]')).toHaveCount(1);
+	await expect(history.locator('li[data-revision]')).toHaveAttribute('data-revision', '2');
+
+	// the overlay picker: the newest few at hand, no tick box per revision; an old one found by a search
+	const picker = page.getByTestId('overlay-picker');
+	expect(await picker.locator('input[type="checkbox"]').count()).toBeLessThanOrEqual(6);
+	await page.getByTestId('overlay-search').fill('old bracket');
+	const found = page.getByTestId('overlay-results').getByLabel('r4 old bracket');
+	await found.check();
+	await expect(page.getByTestId('chart-toe').locator(`path[data-series="${ids[3]}"]`)).toHaveCount(1);
+	await expect(picker.getByLabel('r4 old bracket').first()).toBeChecked();
+
+	// the charts are in view without scrolling: the first chart whole inside the window
+	await page.evaluate(() => window.scrollTo(0, 0));
+	const first = (await page.getByTestId('chart-camber').boundingBox())!;
+	expect(first.y).toBeGreaterThan(0);
+	expect(first.y + first.height).toBeLessThanOrEqual(900);
+	await page.screenshot({ path: 'test-results/screens/corner-many-revisions-1440.png' });
 });

@@ -9,9 +9,9 @@
 import { AmbientLight, CylinderGeometry, DirectionalLight, Group, OctahedronGeometry, OrthographicCamera, Scene, SphereGeometry, Sprite, SRGBColorSpace, Vector3, WebGLRenderer, type BufferGeometry } from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import { disposeTree, readPalette, scratchA, toWorld, type SharedGeometry } from './linkage/basics';
-import { AxesTriad } from './linkage/gizmo';
+import { AxesTriad, triadBox } from './linkage/gizmo';
 import { buildGround } from './linkage/ground';
-import { sizeLabels } from './linkage/labels';
+import { LABEL_PX, sizeLabels, spreadLabels } from './linkage/labels';
 import { RevisionRig, type Look } from './linkage/rig';
 import type { CornerKind, Frame, LinkageScene, SceneData, Vec3, ViewPreset } from './linkage/types';
 
@@ -104,7 +104,9 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 	function draw() {
 		canvas.dataset.draws = String(++draws); // tests and the bench see when a new picture has been drawn
 		// labels keep a constant on-screen size: world units per CSS pixel of the orthographic view
-		sizeLabels(sprites, (camera.top - camera.bottom) / camera.zoom / height);
+		const perPx = (camera.top - camera.bottom) / camera.zoom / height;
+		sizeLabels(sprites, perPx);
+		placeLabels(perPx);
 		renderer.setScissorTest(false);
 		renderer.setViewport(0, 0, width, height);
 		renderer.clear();
@@ -112,6 +114,45 @@ export function createLinkageScene(canvas: HTMLCanvasElement): LinkageScene {
 		triad.render(renderer, camera);
 		renderer.setScissorTest(false);
 		renderer.setViewport(0, 0, width, height);
+	}
+
+	const right = new Vector3();
+	const up = new Vector3();
+	const onScreen = new Vector3();
+	/** Is an object drawn (itself and every parent visible, and in the scene)? */
+	const shown = (o: Sprite) => {
+		for (let p: typeof o.parent | Sprite = o; p; p = p.parent) {
+			if (!p.visible) return false;
+			if (p === scene) return true;
+		}
+		return false;
+	};
+	/**
+	 * Moves the labels apart on screen where they would overlap (front and side views bring the roll centre, the
+	 * instant centre and the centreline together): each label's anchor is projected, `spreadLabels` picks the
+	 * offsets in pixels, and they are applied along the camera's right and up directions.
+	 */
+	function placeLabels(perPx: number) {
+		camera.updateMatrixWorld();
+		right.setFromMatrixColumn(camera.matrixWorld, 0);
+		up.setFromMatrixColumn(camera.matrixWorld, 1);
+		const list = [...sprites].filter(shown).sort((a, b) => (a.userData.priority ?? 5) - (b.userData.priority ?? 5));
+		const h = LABEL_PX * 1.4;
+		const boxes = list.map((s) => {
+			const base = (s.userData.anchor?.position as Vector3 | undefined) ?? (s.userData.base ??= s.position.clone());
+			onScreen.copy(base).project(camera);
+			const w = h * s.userData.aspect;
+			const x = ((onScreen.x + 1) / 2) * width - s.center.x * w;
+			const y = ((1 - onScreen.y) / 2) * height - (1 - s.center.y) * h;
+			return { x, y, w, h };
+		});
+		const offsets = spreadLabels(boxes, 2, [triadBox(height)], { w: width, h: height });
+		list.forEach((s, i) => {
+			const base = (s.userData.anchor?.position as Vector3 | undefined) ?? (s.userData.base as Vector3);
+			s.position.copy(base).addScaledVector(right, offsets[i].dx * perPx).addScaledVector(up, -offsets[i].dy * perPx);
+		});
+		// where the labels were drawn (CSS px in the canvas), for tests: [text, x, y, w, h]
+		canvas.dataset.labels = JSON.stringify(list.map((s, i) => [s.userData.text, ...[boxes[i].x + offsets[i].dx, boxes[i].y + offsets[i].dy, boxes[i].w, boxes[i].h].map((v) => Math.round(v))]));
 	}
 
 	function applyFrustum() {

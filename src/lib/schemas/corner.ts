@@ -104,3 +104,20 @@ export const solveBody = z
 		}
 		return { geometry, options: q.data };
 	});
+
+/** How many revisions one page of a list holds at most (the corner page shows REVISION_PAGE). */
+export const REVISION_PAGE_MAX = 200;
+export const REVISION_PAGE = 20;
+
+const whole = (name: string, min: number, max: number, words: string) =>
+	z.coerce.number({ message: `${name} must be ${words}` }).int(`${name} must be ${words}`).min(min, `${name} must be ${words}`).max(max, `${name} must be ${words}`);
+
+/**
+ * The query of a revision list: `q` (words matched in label, note, author, `r12` and the date `2026-12-03` /
+ * `3 Dec 2026`), `limit` (1…200) and `offset`. Without `limit` the API answers the whole list, as before paging.
+ */
+export const revisionListQuery = z.object({
+	q: z.string().max(200, 'q is at most 200 characters').optional(),
+	limit: whole('limit', 1, REVISION_PAGE_MAX, `a whole number from 1 to ${REVISION_PAGE_MAX}`).optional(),
+	offset: whole('offset', 0, 1_000_000, 'a whole number from 0 to 1000000').default(0)
+});

@@ -9,6 +9,12 @@ import { LABEL_PX, makeLabel } from './labels';
 import type { Vec3 } from './types';
 
 const GIZMO_PX = 170; // CSS pixels: side of the axes-triad inset
+/** Where the triad and its labels are drawn in a view `height` CSS px tall (bottom-left), for the labels to avoid. */
+export function triadBox(height: number) {
+	const cx = 4 + GIZMO_PX / 2;
+	const cy = height - 4 - GIZMO_PX / 2;
+	return { x: cx - 65, y: cy - 62, w: 130, h: 124 };
+}
 const GIZMO_HALF = 2.1; // triad inset half-size in arrow lengths (room for the labels)
 
 /** The axes triad of the 3-D view. */

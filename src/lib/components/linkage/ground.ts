@@ -30,6 +30,7 @@ export function buildGround(f: Frame, palette: Palette, sprites: Set<Sprite>): G
 	const clLabel = makeLabel('centreline', palette.muted, sprites);
 	clLabel.center.set(1.04, 0.5); // text ends at the line, so it stays clear of the roll centre in the front view
 	clLabel.position.copy(toWorld([wc[0] + span / 2 - 60, 0, 0], new Vector3()));
+	clLabel.userData.priority = 3;
 	statics.add(clLabel);
 	return statics;
 }

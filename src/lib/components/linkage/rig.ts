@@ -153,6 +153,8 @@ export class RevisionRig {
 			const rc = makeLabel('RC', look.marker, sprites);
 			fv.userData.anchor = this.fvicMarker;
 			rc.userData.anchor = this.rcMarker;
+			rc.userData.priority = 1; // the roll centre's label stays at its marker; the instant centre's gives way
+			fv.userData.priority = 2;
 			this.labels.push(fv, rc);
 			this.group.add(fv, rc);
 		}

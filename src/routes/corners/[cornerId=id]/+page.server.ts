@@ -5,7 +5,8 @@ import { targetsSchema } from '$lib/schemas/targets';
 import { saveRevision, vehicleFromCar } from '$lib/server/corners/revisions';
 import { solveCorner } from '$lib/server/corners/solve';
 import { db } from '$lib/server/db';
-import { latestRevision, revisionOfCorner, revisionsOfCorner, setBaseline } from '$lib/server/db/queries/corners';
+import { latestRevision, revisionOfCorner, revisionPage, revisionsOfCornerByIds, setBaseline } from '$lib/server/db/queries/corners';
+import { REVISION_PAGE } from '$lib/schemas/corner';
 import { recordAudit } from '$lib/server/db/queries/audit';
 import { studiesOfCorner } from '$lib/server/db/queries/studies';
 import { scansOfCar } from '$lib/server/db/queries/scans';
@@ -14,19 +15,34 @@ import { scanView } from '$lib/server/scans/scans';
 import { can, requireCorner } from '$lib/server/permissions';
 import type { Actions, PageServerLoad } from './$types';
 
+/** How many of the newest revisions the overlay picker offers without a search. */
+const RECENT_OVERLAYS = 5;
+
+/** The revision ids a saved study overlays (settings are stored JSON: read defensively). */
+function overlayIds(settings: unknown): string[] {
+	const list = (settings as { overlays?: unknown } | null)?.overlays;
+	return Array.isArray(list) ? list.filter((x): x is string => typeof x === 'string' && z.string().uuid().safeParse(x).success) : [];
+}
+
 export const load: PageServerLoad = async (event) => {
 	const { corner, car, role } = await requireCorner(event, event.params.cornerId, 'view');
 	const fromId = event.url.searchParams.get('from');
 	const asked = fromId && z.string().uuid().safeParse(fromId).success ? fromId : null;
 	// the four reads do not depend on each other: one round trip's wait instead of four
 	await sweepScans();
-	const [latest, askedRevision, revisions, studies, scans] = await Promise.all([
+	const [latest, askedRevision, firstPage, baseline, studies, scans] = await Promise.all([
 		latestRevision(db, corner.id),
 		asked ? revisionOfCorner(db, corner.id, asked) : null,
-		revisionsOfCorner(db, corner.id),
+		// the history's first page (search and further pages come from the API), never the whole list
+		revisionPage(db, corner.id, { limit: REVISION_PAGE, offset: 0 }),
+		corner.baselineRevisionId ? revisionsOfCornerByIds(db, corner.id, [corner.baselineRevisionId]) : [],
 		studiesOfCorner(db, corner.id),
 		scansOfCar(db, car.id, corner.id)
 	]);
+	// The overlay picker's revisions at hand: the baseline, the newest few, and those the saved studies overlay.
+	const atHand = new Map([...baseline, ...firstPage.rows.slice(0, RECENT_OVERLAYS)].map((r) => [r.id, r]));
+	const studied = [...new Set(studies.flatMap((s) => overlayIds(s.settings)))].filter((id) => !atHand.has(id));
+	for (const r of await revisionsOfCornerByIds(db, corner.id, studied)) atHand.set(r.id, r);
 	const shown = asked ? askedRevision : latest;
 	if (fromId && !shown) error(404, { message: 'Revision not found', code: 'not_found' });
 	const parsed = shown ? cornerGeometrySchema.safeParse(shown.geometry) : null;
@@ -38,7 +54,9 @@ export const load: PageServerLoad = async (event) => {
 		corner,
 		revision: shown,
 		latestNumber: latest?.number ?? 0,
-		revisions,
+		revisions: firstPage.rows,
+		revisionTotal: firstPage.total,
+		overlayChoices: [...atHand.values()].map(({ id, number, label, createdAt }) => ({ id, number, label, createdAt })),
 		vehicle: vehicleFromCar(car, corner),
 		targets: targetsSchema.catch([]).parse(car.targets),
 		studies,

@@ -1,5 +1,5 @@
 // Corners and their immutable revisions, reached through the caller's memberships.
-import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import type { Database } from '../connect';
 import { lockNumbering, retryingNumberRace } from './numbering';
 import { createHash } from 'node:crypto';
@@ -69,6 +69,70 @@ export function revisionsOfCorner(db: Database, cornerId: string) {
 		.from(revisions)
 		.leftJoin(users, eq(users.id, revisions.authorId))
 		.where(eq(revisions.cornerId, cornerId))
+		.orderBy(desc(revisions.number));
+}
+
+/** The columns of a revision list row (no geometry). */
+const listColumns = {
+	id: revisions.id,
+	number: revisions.number,
+	label: revisions.label,
+	note: revisions.note,
+	kind: revisions.kind,
+	parentId: revisions.parentId,
+	createdAt: revisions.createdAt,
+	authorName: users.name
+};
+
+/** A LIKE pattern matching `word` anywhere, with LIKE's own wildcards taken literally. */
+function containing(word: string) {
+	return `%${word.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+}
+
+/**
+ * What a search word may match in a revision: its label, note, author's name, its number written `r12`, and its
+ * date as `2026-12-03` or `3 Dec 2026` (UTC, the server's dates). Every word must match (the words are ANDed).
+ */
+function revisionSearch(q: string) {
+	const words = q.trim().split(/\s+/).filter(Boolean).slice(0, 8);
+	if (!words.length) return undefined;
+	return and(
+		...words.map(
+			(w) => sql`concat_ws(' ', ${revisions.label}, ${revisions.note}, ${users.name}, 'r' || ${revisions.number},
+				to_char(${revisions.createdAt} at time zone 'UTC', 'YYYY-MM-DD FMDD Mon YYYY')) ilike ${containing(w)}`
+		)
+	);
+}
+
+/** One page of a corner's revisions, newest first, optionally searched, and how many match in all. */
+export async function revisionPage(db: Database, cornerId: string, opts: { q?: string; limit: number; offset: number }) {
+	const where = and(eq(revisions.cornerId, cornerId), opts.q ? revisionSearch(opts.q) : undefined);
+	const [rows, [{ total }]] = await Promise.all([
+		db
+			.select(listColumns)
+			.from(revisions)
+			.leftJoin(users, eq(users.id, revisions.authorId))
+			.where(where)
+			.orderBy(desc(revisions.number))
+			.limit(opts.limit)
+			.offset(opts.offset),
+		db
+			.select({ total: sql<number>`count(*)::int` })
+			.from(revisions)
+			.leftJoin(users, eq(users.id, revisions.authorId))
+			.where(where)
+	]);
+	return { rows, total };
+}
+
+/** The listed revisions of a corner among `ids` (ids of another corner are left out), newest first. */
+export function revisionsOfCornerByIds(db: Database, cornerId: string, ids: string[]) {
+	if (!ids.length) return Promise.resolve([]);
+	return db
+		.select(listColumns)
+		.from(revisions)
+		.leftJoin(users, eq(users.id, revisions.authorId))
+		.where(and(eq(revisions.cornerId, cornerId), inArray(revisions.id, ids)))
 		.orderBy(desc(revisions.number));
 }
 
