@@ -9,7 +9,7 @@ declare global {
 			field?: string;
 		}
 		interface Locals {
-			user: { id: string; email: string; name: string } | null;
+			user: { id: string; email: string; name: string; lengthUnit: 'mm' | 'in' } | null;
 			teams: TeamRole[];
 			team: TeamRole | null;
 			/** a known-device token to set on this response (after a successful sign-in) */
@@ -18,7 +18,7 @@ declare global {
 			unavailable?: boolean;
 		}
 		interface PageData {
-			user?: { id: string; email: string; name: string } | null;
+			user?: { id: string; email: string; name: string; lengthUnit: 'mm' | 'in' } | null;
 		}
 	}
 }

@@ -169,3 +169,40 @@ test('combined motions: bump steer at lock as a map, and heave × roll', async (
 	await expect(page.getByTestId('heat-map')).toHaveCount(3);
 	await expect(page.getByRole('figure', { name: 'Camber to the ground change' })).toBeVisible();
 });
+
+test('inches: an engineer who works in inches reads and types the points in inches; the stored value is mm', async ({ page }) => {
+	const stamp = Date.now();
+	await page.goto('/signup');
+	await page.getByLabel('Your name').fill('Invented Inch Engineer');
+	await page.getByLabel('E-mail').fill(`inches-${stamp}@example.test`);
+	await page.getByLabel('Password (at least 10 characters)').fill('a long inch secret');
+	await page.getByLabel('Team name').fill(`Inch team ${stamp}`);
+	await page.getByRole('button', { name: 'Create account' }).click();
+	await expect(page.getByRole('heading', { name: 'Cars' })).toBeVisible();
+	await page.goto('/account');
+	await page.getByLabel('Inches (in)').check();
+	await page.getByRole('button', { name: 'Save units' }).click();
+	await expect(page.getByTestId('unit-saved')).toHaveText('Lengths now in inches.');
+	// a car and a corner with the invented club corner, through the API as this user
+	const car = await (await page.request.post('/api/v1/cars', { data: { name: 'Inch car' } })).json();
+	const corner = await (await page.request.post(`/api/v1/cars/${car.id}/corners`, { data: { position: 'front_left', kind: 'double_wishbone' } })).json();
+	const geometry = JSON.parse(readFileSync('fixtures/club-fwd-front-left.json', 'utf8'));
+	expect((await page.request.post(`/api/v1/corners/${corner.id}/revisions`, { data: { label: 'stock', note: '', geometry } })).status()).toBe(201);
+	await page.goto(`/corners/${corner.id}`);
+	await settled(page);
+	// steer.inner y = 358 mm = 14.094 in (÷ 25.4)
+	const y = page.getByLabel('Tie rod, inner joint, y in in');
+	await expect(y).toHaveValue((358 / 25.4).toFixed(3));
+	await expect(page.getByRole('columnheader', { name: 'y (in)' })).toBeVisible();
+	// the charts' lengths are in inches too
+	await expect(page.getByText(/Half-track change \(in\)/).first()).toBeVisible();
+	await y.fill('14.5');
+	await page.keyboard.press('Tab');
+	await page.getByLabel('Label', { exact: true }).fill('inch edit');
+	await page.getByRole('button', { name: 'Save as new revision' }).click();
+	await expect(page.getByText(/Saved as r2/)).toBeVisible();
+	const revs = await (await page.request.get(`/api/v1/corners/${corner.id}/revisions?limit=1`)).json();
+	const saved = await (await page.request.get(`/api/v1/revisions/${revs.revisions[0].id}`)).json();
+	expect(saved.geometry.points['steer.inner'][1]).toBeCloseTo(14.5 * 25.4, 9);
+	await page.screenshot({ path: 'test-results/screens/workspace-inches.png' });
+});

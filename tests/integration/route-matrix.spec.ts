@@ -65,6 +65,7 @@ const TABLE: Record<string, string> = {
 	'GET /account': SIGNED_IN,
 	'POST /account ?/createToken': SIGNED_IN,
 	'POST /account ?/revokeToken': SIGNED_IN,
+	'POST /account ?/setUnit': SIGNED_IN,
 	// Ends every session of the caller and sends the browser to sign in: refused or done, the answer is the sign-in page.
 	// Run after everything else (it signs the demo accounts out).
 	'POST /account ?/signOutEverywhere': 'sssssssss',

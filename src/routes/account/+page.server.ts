@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { hashToken, newToken } from '$lib/server/auth/tokens';
 import { db } from '$lib/server/db';
 import { openSessionCount, revokeSessionsOfUser } from '$lib/server/db/queries/sessions';
-import { apiTokensOfUser, createApiToken, revokeApiToken } from '$lib/server/db/queries/users';
+import { apiTokensOfUser, createApiToken, revokeApiToken, setLengthUnit } from '$lib/server/db/queries/users';
 import { requireUser } from '$lib/server/permissions';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -15,7 +15,16 @@ export const load: PageServerLoad = async (event) => {
 
 const createForm = z.object({ name: z.string().trim().min(1, 'Give the token a name').max(80, 'Name is at most 80 characters') });
 
+const unitForm = z.object({ unit: z.enum(['mm', 'in'], { message: 'unit: choose millimetres or inches' }) });
+
 export const actions: Actions = {
+	setUnit: async (event) => {
+		const user = requireUser(event);
+		const parsed = unitForm.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) return fail(400, { error: parsed.error.issues[0].message });
+		await setLengthUnit(db, user.id, parsed.data.unit);
+		return { unit: parsed.data.unit };
+	},
 	createToken: async (event) => {
 		const user = requireUser(event);
 		const parsed = createForm.safeParse(Object.fromEntries(await event.request.formData()));

@@ -214,7 +214,7 @@ export function formatValue(v: number | null, unit: string, decimals = defaultDe
 	if (v === null || !Number.isFinite(v)) return '–';
 	const n = formatNumber(v, decimals);
 	if (unit === '') return n;
-	return unit === 'mm' ? `${n} mm` : `${n}${unit}`;
+	return unit === 'mm' || unit === 'in' ? `${n} ${unit}` : `${n}${unit}`;
 }
 
 /** An axis title with its unit in brackets; a dimensionless quantity shows "(–)". */

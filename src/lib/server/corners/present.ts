@@ -46,8 +46,10 @@ export function revisionWarnings(geometry: unknown): PlausibilityWarning[] {
  * The revision's points as CSV: point, x, y, z in mm, ISO 8855 vehicle axes, in the point table's order (the kind's
  * points, the spring's, the rocker's), then any other point the file carries.
  */
-export function pointsCsv(geometry: { kind?: string; points: Record<string, [number, number, number]>; rocker?: object | null }) {
-	return toCsv([['point', 'x_mm', 'y_mm', 'z_mm'], ...orderedPoints(geometry).map(([name, p]) => [name, ...p])]);
+export function pointsCsv(geometry: { kind?: string; points: Record<string, [number, number, number]>; rocker?: object | null }, unit: 'mm' | 'in' = 'mm') {
+	// full precision either way: inches are the stored mm ÷ 25.4, columns named for the unit
+	const k = unit === 'in' ? 25.4 : 1;
+	return toCsv([['point', `x_${unit}`, `y_${unit}`, `z_${unit}`], ...orderedPoints(geometry).map(([name, p]) => [name, ...p.map((v) => v / k)])]);
 }
 
 /** The points in the point table's order (the kind's, the spring's, the rocker's), then any other the file carries. */

@@ -48,9 +48,15 @@ export const users = pgTable(
 		email: text('email').notNull(),
 		name: text('name').notNull(),
 		passwordHash: text('password_hash').notNull(),
+		// Lengths on screen, in the share sheet's default and in CSV downloads: millimetres or inches (stored values stay mm).
+		lengthUnit: text('length_unit', { enum: ['mm', 'in'] }).notNull().default('mm'),
 		createdAt: created()
 	},
-	(t) => [uniqueIndex('users_email_key').on(t.email), check('users_email_lower', sql`${t.email} = lower(${t.email})`)]
+	(t) => [
+		uniqueIndex('users_email_key').on(t.email),
+		check('users_email_lower', sql`${t.email} = lower(${t.email})`),
+		check('users_length_unit_check', sql`${t.lengthUnit} in ('mm', 'in')`)
+	]
 );
 
 export const teams = pgTable('teams', {

@@ -1,5 +1,6 @@
-// The share sheet's table as CSV (pure: no database), mm at 0.1 as on the sheet, ISO 8855 vehicle axes.
+// The share sheet's table as CSV (pure: no database), mm at 0.1 (or inches at 0.001) as on the sheet, ISO 8855 axes.
 import { toCsv } from '$lib/csv';
+import { lengthText, type LengthUnit } from '$lib/units';
 
 export interface SheetRow {
 	name: string;
@@ -12,19 +13,18 @@ export interface SheetRow {
 	tolerance: { mm: number; mode: 'axis' | 'sphere' } | null;
 }
 
-/** mm at 0.1, as on the sheet, never "-0.0". */
-function tenth(v: number) {
-	const s = v.toFixed(1);
-	return Number(s) === 0 ? '0.0' : s;
-}
-
-/** The sheet's table as CSV: point, x, y, z, the move from the baseline and the tolerance (mm, ISO 8855 axes). */
-export function sheetCsv(rows: SheetRow[], withTolerance: boolean) {
-	const head = ['point', 'description', 'x_mm', 'y_mm', 'z_mm', 'dx_mm', 'dy_mm', 'dz_mm', ...(withTolerance ? ['tolerance_mm', 'tolerance_mode'] : [])];
+/**
+ * The sheet's table as CSV: point, x, y, z, the move from the baseline and the tolerance (ISO 8855 axes), in mm at
+ * 0.1 as on the sheet, or in inches at 0.001 with the columns named `_in`; never "-0.0".
+ */
+export function sheetCsv(rows: SheetRow[], withTolerance: boolean, unit: LengthUnit = 'mm') {
+	const u = unit;
+	const len = (v: number) => lengthText(v, unit, 1);
+	const head = ['point', 'description', `x_${u}`, `y_${u}`, `z_${u}`, `dx_${u}`, `dy_${u}`, `dz_${u}`, ...(withTolerance ? [`tolerance_${u}`, 'tolerance_mode'] : [])];
 	const lines = rows.map((r) => {
-		const d = r.delta ? [r.delta.dx, r.delta.dy, r.delta.dz].map(tenth) : ['', '', ''];
-		const t = withTolerance ? (r.tolerance ? [String(Math.round(r.tolerance.mm * 100) / 100), r.tolerance.mode] : ['', '']) : [];
-		return [r.name, r.label, ...r.xyz.map(tenth), ...d, ...t];
+		const d = r.delta ? [r.delta.dx, r.delta.dy, r.delta.dz].map(len) : ['', '', ''];
+		const t = withTolerance ? (r.tolerance ? [unit === 'mm' ? String(Math.round(r.tolerance.mm * 100) / 100) : lengthText(r.tolerance.mm, unit, 2), r.tolerance.mode] : ['', '']) : [];
+		return [r.name, r.label, ...r.xyz.map(len), ...d, ...t];
 	});
 	return toCsv([head, ...lines]);
 }

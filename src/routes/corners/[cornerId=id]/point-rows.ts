@@ -13,13 +13,13 @@ export type Point = [number, number, number];
 
 export const MAX_ABS_MM = 5000;
 
-/** Parses a typed value in mm: a decimal comma is accepted; blank is null. */
-export function parseCell(text: string): { value: number | null; error: string | null } {
+/** Parses a typed value, in mm or (with mmPerUnit 25.4) inches, into mm: a decimal comma is accepted; blank is null. */
+export function parseCell(text: string, mmPerUnit = 1): { value: number | null; error: string | null } {
 	const t = text.trim().replace(',', '.');
 	if (t === '') return { value: null, error: null };
-	const v = Number(t);
+	const v = Number(t) * mmPerUnit;
 	if (!Number.isFinite(v)) return { value: null, error: `"${text.trim()}" is not a number` };
-	if (Math.abs(v) > MAX_ABS_MM) return { value: null, error: `more than ${MAX_ABS_MM} mm from the origin: check the units` };
+	if (Math.abs(v) > MAX_ABS_MM) return { value: null, error: `more than ${MAX_ABS_MM} mm${mmPerUnit === 1 ? '' : ` (${(MAX_ABS_MM / mmPerUnit).toFixed(1)} in)`} from the origin: check the units` };
 	return { value: v, error: null };
 }
 

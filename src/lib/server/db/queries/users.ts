@@ -35,21 +35,21 @@ export async function accountWithTeams(
 	db: Database,
 	id: string,
 	sessionId?: string
-): Promise<{ user: { id: string; email: string; name: string } | null; teams: TeamRole[] }> {
+): Promise<{ user: { id: string; email: string; name: string; lengthUnit: 'mm' | 'in' } | null; teams: TeamRole[] }> {
 	const open = sessionId
 		? sql`exists (select 1 from ${sessions} where ${sessions.id} = ${sessionId} and ${sessions.userId} = ${users.id} and ${sessions.revokedAt} is null and ${sessions.expiresAt} > now())`
 		: sql`true`;
 	const rows = await db
-		.select({ id: users.id, email: users.email, name: users.name, teamId: teams.id, teamName: teams.name, role: memberships.role })
+		.select({ id: users.id, email: users.email, name: users.name, lengthUnit: users.lengthUnit, teamId: teams.id, teamName: teams.name, role: memberships.role })
 		.from(users)
 		.leftJoin(memberships, eq(memberships.userId, users.id))
 		.leftJoin(teams, eq(teams.id, memberships.teamId))
 		.where(and(eq(users.id, id), open))
 		.orderBy(asc(teams.name));
 	if (rows.length === 0) return { user: null, teams: [] };
-	const { email, name } = rows[0];
+	const { email, name, lengthUnit } = rows[0];
 	const list = rows.flatMap((r) => (r.teamId && r.teamName && r.role ? [{ id: r.teamId, name: r.teamName, role: r.role }] : []));
-	return { user: { id, email, name }, teams: list };
+	return { user: { id, email, name, lengthUnit }, teams: list };
 }
 
 /** Creates an account and its own team with the account as owner, in one transaction. */
@@ -103,4 +103,9 @@ export async function revokeApiToken(db: Database, userId: string, tokenId: stri
 		.where(and(eq(apiTokens.id, tokenId), eq(apiTokens.userId, userId), sql`${apiTokens.revokedAt} is null`))
 		.returning({ id: apiTokens.id });
 	return rows.length > 0;
+}
+
+/** Sets the account's length unit for display. */
+export async function setLengthUnit(db: Database, userId: string, unit: 'mm' | 'in') {
+	await db.update(users).set({ lengthUnit: unit }).where(eq(users.id, userId));
 }

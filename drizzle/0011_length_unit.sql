@@ -1,0 +1,2 @@
+ALTER TABLE "users" ADD COLUMN "length_unit" text DEFAULT 'mm' NOT NULL;--> statement-breakpoint
+ALTER TABLE "users" ADD CONSTRAINT "users_length_unit_check" CHECK ("users"."length_unit" in ('mm', 'in'));

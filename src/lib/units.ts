@@ -1,0 +1,39 @@
+// Length units for display: every length is stored in millimetres (vehicle axes); a user may read and type them in
+// inches instead (1 in = 25.4 mm exactly: the international inch, NIST SP 811 appendix B). Client-safe.
+import { getContext, setContext } from 'svelte';
+
+export const LENGTH_UNITS = ['mm', 'in'] as const;
+export type LengthUnit = (typeof LENGTH_UNITS)[number];
+export const MM_PER_INCH = 25.4;
+export const UNIT_WORDS: Record<LengthUnit, string> = { mm: 'millimetres', in: 'inches' };
+
+/** Millimetres per display unit. */
+export const mmPer = (unit: LengthUnit) => (unit === 'in' ? MM_PER_INCH : 1);
+
+/** A length in mm shown in `unit`. */
+export const toUnit = (mm: number, unit: LengthUnit) => mm / mmPer(unit);
+
+/** A length typed in `unit`, in mm. */
+export const fromUnit = (value: number, unit: LengthUnit) => value * mmPer(unit);
+
+/** Decimals in `unit` for a figure shown to `mmDecimals` in mm: two more in inches (0.1 mm ≈ 0.004 in). */
+export const decimalsIn = (mmDecimals: number, unit: LengthUnit) => (unit === 'in' ? mmDecimals + 2 : mmDecimals);
+
+/** A length in mm written in `unit` (minus signs as typed by a keyboard), e.g. "12.300" in, "312.4" mm. */
+export function lengthText(mm: number, unit: LengthUnit, mmDecimals = 1): string {
+	const d = decimalsIn(mmDecimals, unit);
+	const s = toUnit(mm, unit).toFixed(d);
+	return Number(s) === 0 ? (0).toFixed(d) : s;
+}
+
+const KEY = Symbol('lw-length-unit');
+
+/** Sets the page's length unit for the components below (the layout does it from the signed-in user). */
+export function provideLengthUnit(get: () => LengthUnit) {
+	setContext(KEY, get);
+}
+
+/** The length unit the components below show (mm when none was provided). */
+export function lengthUnit(): () => LengthUnit {
+	return getContext<(() => LengthUnit) | undefined>(KEY) ?? (() => 'mm');
+}
