@@ -129,7 +129,7 @@ describe('through the queue', () => {
 
 	test('a chunk delivered again (a retried job) adds nothing', async () => {
 		const before = await rowsOf(a);
-		const wrote = await storeChunk(testDb(), a, 0, 0, new Uint8Array(2000).fill(1), new Float64Array(2000 * 5).fill(9), 5);
+		const wrote = await storeChunk(testDb(), a, 0, 0, { ok: new Uint8Array(2000).fill(1), values: new Float64Array(2000 * 6).fill(9), measures: 6, clear: null });
 		expect(wrote).toBe(false);
 		expect(await rowsOf(a)).toEqual(before);
 	});
@@ -208,7 +208,7 @@ describe('faults', () => {
 		for (let c = 0; c < 12; c++) {
 			const r = solveChunk(ev, spec, c * 1000, 1000);
 			for (let v = 0; v < 1000; v++) {
-				const f = (k: number) => (Number.isNaN(r.values[v * 5 + k]) ? null : Math.fround(r.values[v * 5 + k]));
+				const f = (k: number) => (Number.isNaN(r.values[v * 6 + k]) ? null : Math.fround(r.values[v * 6 + k]));
 				expected.push({ idx: c * 1000 + v, ok: r.ok[v] === 1, toe: f(0), camber: f(1), rc: f(2), mig: f(3), mr: f(4) });
 			}
 		}

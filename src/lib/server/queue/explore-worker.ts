@@ -7,7 +7,7 @@ import { explorationForWorker, failExploration, storeChunk } from '../db/queries
 import { EXPLORE_MEASURES, exploreEvaluator, solveChunk, type ExploreSpec } from '../studies/explore';
 import type { CornerEvaluator } from '../studies/evaluate';
 import type { CornerInput } from '../kinematics/corner';
-import { EXPLORE_QUEUE, startQueue, type ChunkJob } from './explore-queue';
+import { EXPLORE_QUEUE, JOBS_CHANNEL, startQueue, type ChunkJob } from './explore-queue';
 
 export interface WorkerHandle {
 	/** chunks this worker wrote (a chunk found already written is not counted) */
@@ -30,10 +30,13 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 	const evaluators = new Map<string, { spec: ExploreSpec; ev: CornerEvaluator }>();
 	let written = 0;
 
+	let lastEnd = performance.now();
 	async function one(job: ChunkJob): Promise<void> {
-		const study = await explorationForWorker(db, job.explorationId);
-		if (!study || study.status !== 'queued') return; // cancelled, finished or gone: nothing to do
+		const t0 = performance.now();
 		let entry = evaluators.get(job.explorationId);
+		// the study's state every chunk (cancelled, finished or gone: nothing to do); its geometry only the first time
+		const study = await explorationForWorker(db, job.explorationId, !entry);
+		if (!study || study.status !== 'queued') return;
 		if (!entry) {
 			const spec = study.spec as unknown as ExploreSpec;
 			try {
@@ -48,8 +51,12 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 		const first = job.chunk * study.chunkSize;
 		const count = Math.min(study.chunkSize, study.variants - first);
 		if (count <= 0) return;
+		const t1 = performance.now();
 		const r = solveChunk(entry.ev, entry.spec, first, count);
-		const wrote = await storeChunk(db, job.explorationId, job.chunk, first, r.ok, r.values, EXPLORE_MEASURES.length);
+		const t2 = performance.now();
+		const wrote = await storeChunk(db, job.explorationId, job.chunk, first, { ok: r.ok, values: r.values, measures: EXPLORE_MEASURES.length, clear: r.clear });
+		if (process.env.LW_WORKER_TIMING) console.error(`[timing] pid ${process.pid} chunk ${job.chunk} load ${(t1 - t0).toFixed(1)} solve ${(t2 - t1).toFixed(1)} store ${(performance.now() - t2).toFixed(1)} gap ${(t0 - lastEnd).toFixed(1)}`);
+		lastEnd = performance.now();
 		if (wrote) written++;
 		options.onChunk?.(job, wrote);
 	}
@@ -60,9 +67,13 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 		// pg-boss waits out the polling interval after a job shorter than it; with work in hand, fetch again at once
 		if (workId) boss.notifyWorker(workId);
 	});
+	// Woken at once when chunks are queued (enqueueChunks notifies), instead of at the next poll. The driver's
+	// listening connection reconnects by itself after the database restarts; the poll covers the gap.
+	const listening = await client.listen(JOBS_CHANNEL, () => boss.notifyWorker(workId));
 	return {
 		written: () => written,
 		async stop() {
+			await listening.unlisten().catch(() => {});
 			await boss.offWork({ id: workId });
 			await boss.stop({ graceful: true, wait: true, timeout: 5000 });
 			await client.end({ timeout: 1 });
