@@ -42,7 +42,7 @@ let boss: Promise<PgBoss> | null = null;
 let stopRegistered = false;
 
 /** The app's handle on the queue (started on first use; no maintenance here, the workers run it). */
-function queue(): Promise<PgBoss> {
+export function queue(): Promise<PgBoss> {
 	if (!boss) {
 		boss = startQueue(serverEnv().DATABASE_URL, { supervise: false, max: 2 });
 		boss.catch(() => (boss = null)); // the next request tries again (the database may be back)

@@ -490,3 +490,33 @@ export type Revision = typeof revisions.$inferSelect;
 export type Role = (typeof ROLES)[number];
 export type ShareLink = typeof shareLinks.$inferSelect;
 export type Invitation = typeof invitations.$inferSelect;
+
+/**
+ * A large tolerance study run through the job queue (issue 18; ≥ 20,000 samples): the engine's spec, and its
+ * chunks' solved samples until the request that queued it has read them (then the row is deleted with its chunks).
+ */
+export const toleranceRuns = pgTable('tolerance_runs', {
+	id: uuid('id').primaryKey().defaultRandom(),
+	revisionId: uuid('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+	spec: jsonb('spec').$type<Record<string, unknown>>().notNull(),
+	samples: integer('samples').notNull(),
+	chunkSize: integer('chunk_size').notNull(),
+	chunks: integer('chunks').notNull(),
+	chunksDone: integer('chunks_done').notNull().default(0),
+	status: text('status', { enum: ['queued', 'done', 'cancelled', 'failed'] }).notNull().default('queued'),
+	error: text('error'),
+	createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+	createdAt: created()
+});
+
+/** One solved chunk of a queued tolerance study: its samples' values (float64, little-endian) and ok flags, written once. */
+export const toleranceChunks = pgTable(
+	'tolerance_chunks',
+	{
+		runId: uuid('run_id').notNull().references(() => toleranceRuns.id, { onDelete: 'cascade' }),
+		chunk: integer('chunk').notNull(),
+		ok: bytea('ok').notNull(),
+		values: bytea('values').notNull()
+	},
+	(t) => [primaryKey({ columns: [t.runId, t.chunk] })]
+);

@@ -7,6 +7,8 @@ import { explorationForWorker, failExploration, storeChunk } from '../db/queries
 import { EXPLORE_MEASURES, exploreEvaluator, solveChunk, type ExploreSpec } from '../studies/explore';
 import type { CornerEvaluator } from '../studies/evaluate';
 import type { CornerInput } from '../kinematics/corner';
+import { failToleranceRun, storeToleranceChunk, toleranceRunOf } from '../db/queries/tolerance-runs';
+import { runSamples, type ToleranceSpec } from '../studies/tolerance';
 import { EXPLORE_QUEUE, JOBS_CHANNEL, startQueue, type ChunkJob } from './explore-queue';
 
 export interface WorkerHandle {
@@ -32,6 +34,7 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 
 	let lastEnd = performance.now();
 	async function one(job: ChunkJob): Promise<void> {
+		if ('toleranceId' in job) return toleranceChunk(job);
 		const t0 = performance.now();
 		let entry = evaluators.get(job.explorationId);
 		// the study's state every chunk (cancelled, finished or gone: nothing to do); its geometry only the first time
@@ -57,6 +60,25 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 		const wrote = await storeChunk(db, job.explorationId, job.chunk, first, { ok: r.ok, values: r.values, measures: EXPLORE_MEASURES.length, clear: r.clear });
 		if (process.env.LW_WORKER_TIMING) console.error(`[timing] pid ${process.pid} chunk ${job.chunk} load ${(t1 - t0).toFixed(1)} solve ${(t2 - t1).toFixed(1)} store ${(performance.now() - t2).toFixed(1)} gap ${(t0 - lastEnd).toFixed(1)}`);
 		lastEnd = performance.now();
+		if (wrote) written++;
+		options.onChunk?.(job, wrote);
+	}
+
+	/** A chunk of a large tolerance study: its samples solved exactly as the study's fast path does (runSamples). */
+	async function toleranceChunk(job: { toleranceId: string; chunk: number }): Promise<void> {
+		const run = await toleranceRunOf(db, job.toleranceId, true);
+		if (!run || run.status !== 'queued') return;
+		const start = job.chunk * run.chunkSize;
+		const end = Math.min(run.samples, start + run.chunkSize);
+		if (end <= start) return;
+		let block;
+		try {
+			block = runSamples(run.spec as unknown as ToleranceSpec, start, end);
+		} catch (err) {
+			await failToleranceRun(db, job.toleranceId, (err as Error).message);
+			return;
+		}
+		const wrote = await storeToleranceChunk(db, job.toleranceId, job.chunk, block.ok, block.values);
 		if (wrote) written++;
 		options.onChunk?.(job, wrote);
 	}
