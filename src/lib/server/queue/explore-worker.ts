@@ -83,20 +83,54 @@ export async function runExploreWorker(url: string, options: WorkerOptions = {})
 		options.onChunk?.(job, wrote);
 	}
 
-	let workId = '';
-	workId = await boss.work<ChunkJob>(EXPLORE_QUEUE, { batchSize: 1, pollingIntervalSeconds: options.pollSeconds ?? 0.5 }, async (jobs) => {
-		for (const job of jobs) await one(job.data);
-		// pg-boss waits out the polling interval after a job shorter than it; with work in hand, fetch again at once
-		if (workId) boss.notifyWorker(workId);
-	});
-	// Woken at once when chunks are queued (enqueueChunks notifies), instead of at the next poll. The driver's
-	// listening connection reconnects by itself after the database restarts; the poll covers the gap.
-	const listening = await client.listen(JOBS_CHANNEL, () => boss.notifyWorker(workId));
+	// The worker's own loop over pg-boss's fetch / complete / fail (not boss.work, which completes a job without
+	// awaiting it: with the database gone, that rejection is unhandled and ends the process). A job is fetched again
+	// at once after one is done; an empty queue waits up to the polling interval, or less when chunks are queued
+	// (enqueueChunks NOTIFYs; the driver's listening connection reconnects by itself after a database restart).
+	// A database error waits a second and tries again; a job whose completion was lost expires and is retried, and
+	// its chunk is found already stored.
+	const pollMs = (options.pollSeconds ?? 0.5) * 1000;
+	let stopping = false;
+	let wake: (() => void) | null = null;
+	const nap = (ms: number) =>
+		new Promise<void>((r) => {
+			const t = setTimeout(() => ((wake = null), r()), ms);
+			wake = () => (clearTimeout(t), (wake = null), r());
+		});
+	const loop = (async () => {
+		while (!stopping) {
+			let jobs: PgBoss.Job<ChunkJob>[];
+			try {
+				jobs = await boss.fetch<ChunkJob>(EXPLORE_QUEUE, { batchSize: 1 });
+			} catch (err) {
+				console.error(`[queue] fetch: ${(err as Error).message}`);
+				await nap(1000);
+				continue;
+			}
+			if (!jobs?.length) {
+				await nap(pollMs);
+				continue;
+			}
+			for (const job of jobs) {
+				try {
+					await one(job.data);
+					await boss.complete(EXPLORE_QUEUE, job.id);
+				} catch (err) {
+					console.error(`[queue] chunk ${job.data.chunk}: ${(err as Error).message}`);
+					await boss.fail(EXPLORE_QUEUE, job.id, { message: (err as Error).message }).catch(() => {});
+					await nap(1000);
+				}
+			}
+		}
+	})();
+	const listening = await client.listen(JOBS_CHANNEL, () => wake?.());
 	return {
 		written: () => written,
 		async stop() {
+			stopping = true;
+			wake?.();
+			await loop;
 			await listening.unlisten().catch(() => {});
-			await boss.offWork({ id: workId });
 			await boss.stop({ graceful: true, wait: true, timeout: 5000 });
 			await client.end({ timeout: 1 });
 		}
