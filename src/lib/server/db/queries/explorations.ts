@@ -135,37 +135,39 @@ export interface StoredChunk {
 }
 
 /**
- * Stores one solved chunk in one transaction: the chunk's row first (keyed by exploration + chunk), and only when
- * that row is new, its variants (one batched insert through unnest, measures in VARIANT_COLUMNS order, null for NaN);
- * then the study's counter of chunks done goes up by one, and the study is marked done when it reaches the count.
- * A chunk solved twice (a worker killed after writing, a retried job) adds nothing the second time.
- * The counter's update is the only lock on the study's row (no key update: the foreign-key checks of other chunks'
- * inserts share it), taken last, so two chunks committing at once queue there for a moment, never deadlock, and the
- * second counts on from the first's committed value. True when this call wrote the chunk.
+ * Stores one solved chunk in one statement (so one transaction and one round trip): the chunk's row (keyed by
+ * exploration + chunk), and only when that row is new, its variants (unnest of one array per column, measures in
+ * VARIANT_COLUMNS order, null for NaN), the study's counter of chunks done up by one (the study marked done when it
+ * reaches the count) and a NOTIFY for the progress stream. A chunk solved twice (a worker killed after writing, a
+ * retried job) adds nothing the second time.
+ * The counter's update is the only lock on the study's row (no key update: the foreign-key check of other chunks'
+ * rows shares it), so two chunks committing at once queue there for a moment, never deadlock, and the second counts
+ * on from the first's committed value. True when this call wrote the chunk.
  */
 export async function storeChunk(db: Database, id: string, chunk: number, first: number, r: StoredChunk) {
-	return db.transaction(async (tx) => {
-		const { ok, values, measures, clear } = r;
-		let feasible = 0;
-		for (let i = 0; i < ok.length; i++) feasible += ok[i];
-		const inserted = await tx.insert(explorationChunks).values({ explorationId: id, chunk, feasible }).onConflictDoNothing().returning({ chunk: explorationChunks.chunk });
-		if (inserted.length === 0) return false;
-		const n = ok.length;
-		const idx = `{${Array.from({ length: n }, (_, i) => first + i).join(',')}}`;
-		const oks = `{${Array.from(ok, (v) => (v ? 't' : 'f')).join(',')}}`;
-		const clears = clear ? `{${Array.from(clear, (v, i) => (ok[i] ? (v ? 't' : 'f') : 'NULL')).join(',')}}` : null;
-		const col = (j: number) => arrayLiteral(values, measures, j, n);
-		await tx.execute(sql`insert into exploration_variants (exploration_id, idx, ok, toe_rms, camber_gain, rc_height, rc_migration, motion_ratio, steer_ratio, clear)
-			select ${id}::uuid, * from unnest(${idx}::int[], ${oks}::bool[], ${col(0)}::real[], ${col(1)}::real[], ${col(2)}::real[], ${col(3)}::real[], ${col(4)}::real[],
-				${col(5)}::real[], ${clears}::bool[])`);
-		await tx.execute(sql`update explorations set chunks_done = chunks_done + 1,
+	const { ok, values, measures, clear } = r;
+	let feasible = 0;
+	for (let i = 0; i < ok.length; i++) feasible += ok[i];
+	const n = ok.length;
+	const idx = `{${Array.from({ length: n }, (_, i) => first + i).join(',')}}`;
+	const oks = `{${Array.from(ok, (v) => (v ? 't' : 'f')).join(',')}}`;
+	const clears = clear ? `{${Array.from(clear, (v, i) => (ok[i] ? (v ? 't' : 'f') : 'NULL')).join(',')}}` : null;
+	const col = (j: number) => arrayLiteral(values, measures, j, n);
+	const [row] = (await db.execute(sql`with c as (
+			insert into exploration_chunks (exploration_id, chunk, feasible) values (${id}::uuid, ${chunk}, ${feasible})
+			on conflict do nothing returning chunk
+		), v as (
+			insert into exploration_variants (exploration_id, idx, ok, toe_rms, camber_gain, rc_height, rc_migration, motion_ratio, steer_ratio, clear)
+			select ${id}::uuid, u.* from unnest(${idx}::int[], ${oks}::bool[], ${col(0)}::real[], ${col(1)}::real[], ${col(2)}::real[], ${col(3)}::real[], ${col(4)}::real[],
+				${col(5)}::real[], ${clears}::bool[]) as u where exists (select 1 from c)
+		), s as (
+			update explorations set chunks_done = chunks_done + 1,
 				status = case when status = 'queued' and chunks_done + 1 >= chunks then 'done' else status end,
 				finished_at = case when status = 'queued' and chunks_done + 1 >= chunks then now() else finished_at end
-			where id = ${id}::uuid`);
-		// delivered at commit to every app instance listening (the progress stream)
-		await tx.execute(sql`select pg_notify(${PROGRESS_CHANNEL}, ${id})`);
-		return true;
-	});
+			where id = ${id}::uuid and exists (select 1 from c) returning id
+		)
+		select (select count(*)::int from c) as wrote, (select count(*)::int from s where pg_notify(${PROGRESS_CHANNEL}, ${id}) is not null) as notified`)) as unknown as { wrote: number }[];
+	return row.wrote > 0;
 }
 
 export interface VariantQuery {
