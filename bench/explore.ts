@@ -14,7 +14,7 @@ import { createExploration, storeChunk } from '../src/lib/server/db/queries/expl
 import { explorations, revisions } from '../src/lib/server/db/schema';
 import type { CornerInput } from '../src/lib/server/kinematics/corner';
 import { enqueueChunks, startQueue } from '../src/lib/server/queue/explore-queue';
-import { DEFAULT_CHUNK, exploreEvaluator, solveChunk, type ExploreSpec } from '../src/lib/server/studies/explore';
+import { DEFAULT_CHUNK, EXPLORE_MEASURES, exploreEvaluator, solveChunk, type ExploreSpec } from '../src/lib/server/studies/explore';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const CORNER = '00000000-0000-4000-8000-0000000000f1';
@@ -53,7 +53,7 @@ export async function run(): Promise<void> {
 	}
 	function workers(n: number): ChildProcess[] {
 		return Array.from({ length: n }, () =>
-			spawn(process.execPath, [path.join(ROOT, 'node_modules/tsx/dist/cli.mjs'), 'scripts/worker.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_URL: url, LW_WORKER_THREADS: '1' }, stdio: 'ignore' })
+			spawn(process.execPath, [path.join(ROOT, 'node_modules/tsx/dist/cli.mjs'), 'scripts/worker.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_URL: url, LW_WORKER_THREADS: '1' }, stdio: process.env.LW_WORKER_TIMING ? 'inherit' : 'ignore' })
 		);
 	}
 	async function stop(ws: ChildProcess[]) {
@@ -72,11 +72,20 @@ export async function run(): Promise<void> {
 	// One chunk's write (2,000 rows through unnest, and the chunk's row), on a study of its own.
 	const w = await createExploration(db, { cornerId: CORNER, revisionId: rev.id, spec: spec(DEFAULT_CHUNK) as unknown as Record<string, unknown>, variants: DEFAULT_CHUNK, chunkSize: DEFAULT_CHUNK, chunks: 1, createdBy: rev.authorId! });
 	const r = solveChunk(ev, spec(DEFAULT_CHUNK), 0, DEFAULT_CHUNK);
-	t = performance.now();
-	await storeChunk(db, w.id, 0, 0, r.ok, r.values, 5);
-	console.log(`store one chunk of ${DEFAULT_CHUNK} variants: ${(performance.now() - t).toFixed(1)} ms`);
+	// as a worker writes it: one statement, synchronous_commit off (explore-worker.ts); the median of 5 chunks
+	const writer = connect(url, 1, { asyncCommit: true });
+	const w5 = await createExploration(db, { cornerId: CORNER, revisionId: rev.id, spec: spec(DEFAULT_CHUNK) as unknown as Record<string, unknown>, variants: 5 * DEFAULT_CHUNK, chunkSize: DEFAULT_CHUNK, chunks: 5, createdBy: rev.authorId! });
+	await storeChunk(writer.db, w.id, 0, 0, { ok: r.ok, values: r.values, measures: EXPLORE_MEASURES.length, clear: r.clear });
+	const writes: number[] = [];
+	for (let c = 0; c < 5; c++) {
+		t = performance.now();
+		await storeChunk(writer.db, w5.id, c, c * DEFAULT_CHUNK, { ok: r.ok, values: r.values, measures: EXPLORE_MEASURES.length, clear: r.clear });
+		writes.push(performance.now() - t);
+	}
+	await writer.client.end();
+	console.log(`store one chunk of ${DEFAULT_CHUNK} variants (one statement, as a worker writes it): median ${writes.sort((a, b) => a - b)[2].toFixed(1)} ms`);
 
-	for (const n of [1, 2]) {
+	for (const n of (process.env.LW_BENCH_EXPLORE_WORKERS ?? '1,2').split(',').map(Number)) {
 		const ws = workers(n);
 		// warm-up: a small study (process start, JIT), not timed
 		await until(await study(n * 2 * DEFAULT_CHUNK));

@@ -47,7 +47,7 @@ if (isMainThread) {
 	const { index } = workerData as { index: number };
 	const handle = await runExploreWorker(url, {
 		supervise: index === 0,
-		onChunk: process.env.LW_WORKER_VERBOSE ? (job, wrote) => console.log(`[worker ${index}] ${job.explorationId} chunk ${job.chunk}${wrote ? '' : ' (already stored)'}`) : undefined
+		onChunk: process.env.LW_WORKER_VERBOSE ? (job, wrote) => console.log(`[worker ${index}] ${'toleranceId' in job ? `tolerance ${job.toleranceId}` : job.explorationId} chunk ${job.chunk}${wrote ? '' : ' (already stored)'}`) : undefined
 	});
 	parentPort!.on('message', async (m) => {
 		if (m === 'stop') {

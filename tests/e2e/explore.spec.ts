@@ -35,10 +35,25 @@ test('design-space exploration: the engineer explores the rack-moved corner over
 	await expect(page.getByLabel('Explore steer.inner z')).toBeChecked();
 	await expect(page.getByLabel('Explore steer.outer z')).toBeChecked();
 	await page.getByLabel('Variants').fill('1000');
+	// Keep four of the measures (motion ratio left out): only those are solved, stored, plotted and tabled.
+	await page.getByLabel('Keep motion ratio').uncheck();
 	await page.getByRole('button', { name: 'Explore' }).click();
 	await expect(page.getByTestId('explore-state')).toHaveText('done', { timeout: 60_000 });
 
+	// The scatter-plot matrix of the four kept measures: 4 × 3 / 2 pair cells and a label per measure.
+	await expect(page.getByTestId('scatter-matrix')).toBeVisible();
+	await expect(page.getByTestId('matrix-cell')).toHaveCount(6);
+	await expect(page.getByTestId('matrix-label')).toHaveCount(4);
+	await expect(page.getByRole('table', { name: 'Variants' }).locator('th')).toHaveText(['Variant', 'Moves (mm)', 'Toe RMS (°)', 'Camber gain (°/mm)', 'RC height (mm)', 'RC migration (mm)']);
+
+	// A third objective: the front of three, coloured by it.
+	await page.getByLabel('Objective z (optional)').selectOption('rc_height');
+	await expect(page.getByTestId('pareto-z-legend')).toBeVisible();
 	const points = page.getByTestId('pareto-point');
+	await expect(points.first()).toHaveAttribute('data-z', /\d/);
+	// back to two objectives for the pick
+	await page.getByLabel('Objective z (optional)').selectOption('');
+	await expect(page.getByTestId('pareto-z-legend')).toHaveCount(0);
 	await expect(points.first()).toBeVisible();
 	expect(await points.count()).toBeGreaterThan(1);
 	// The front's points lie close together: pick the least toe change (the first) from the keyboard.

@@ -129,7 +129,7 @@ describe('through the queue', () => {
 
 	test('a chunk delivered again (a retried job) adds nothing', async () => {
 		const before = await rowsOf(a);
-		const wrote = await storeChunk(testDb(), a, 0, 0, new Uint8Array(2000).fill(1), new Float64Array(2000 * 5).fill(9), 5);
+		const wrote = await storeChunk(testDb(), a, 0, 0, { ok: new Uint8Array(2000).fill(1), values: new Float64Array(2000 * 6).fill(9), measures: 6, clear: null });
 		expect(wrote).toBe(false);
 		expect(await rowsOf(a)).toEqual(before);
 	});
@@ -178,6 +178,104 @@ describe('through the queue', () => {
 	});
 });
 
+describe('measures chosen per study, keep-out volumes and the steering ratio from the car model, three objectives, the matrix', () => {
+	const SINGLE_SEATER_FRONT_LEFT = '00000000-0000-4000-8000-0000000002f1';
+
+	test('only the chosen measures are stored; sorting, filtering or a front on another is refused naming the field', async () => {
+		const res = await start(engineer, { variants: 2000, seed: 21, measures: ['toe_rms', 'rc_migration'] });
+		expect(res.status).toBe(201);
+		const view = await res.json();
+		expect(view.measures).toEqual(['toe_rms', 'rc_migration']);
+		await solveWith(1, view.id);
+		const rows = (await rowsOf(view.id)).filter((r) => r.ok);
+		expect(rows.length).toBeGreaterThan(50);
+		expect(rows.every((r) => r.toe !== null && r.mig !== null && r.camber === null && r.rc === null && r.mr === null)).toBe(true);
+		for (const [path, field] of [
+			[`variants?sort=camber_gain`, 'sort'],
+			[`variants?filter=motion_ratio&max=1`, 'filter'],
+			[`pareto?x=toe_rms&y=camber_gain`, 'y']
+		]) {
+			const bad = await viewer.fetch(`/api/v1/explorations/${view.id}/${path}`);
+			expect(bad.status).toBe(400);
+			expect((await bad.json()).error.field).toBe(field);
+		}
+		const m = await (await viewer.fetch(`/api/v1/explorations/${view.id}/matrix?sample=100`)).json();
+		expect(m.measures).toEqual(['toe_rms', 'rc_migration']);
+		expect(m.total).toBe(rows.length);
+		expect(m.rows.length).toBeLessThanOrEqual(100);
+		expect(m.rows.length).toBeGreaterThan(50);
+		const byIdx = new Map(rows.map((r) => [r.idx, r]));
+		for (const r of m.rows) expect(Math.fround(r.toe_rms)).toBe(Math.fround(byIdx.get(r.idx)!.toe!));
+	});
+
+	test.each([
+		[{ measures: [] }, 'measures', /at least one/],
+		[{ measures: ['toe_rms', 'toe_rms'] }, 'measures.1', /listed twice/],
+		[{ measures: ['bump_steer'] }, 'measures.0', /must be one of/],
+		[{ measures: ['steer_ratio'] }, 'measures.0', /car model's steering/]
+	])('bad measures %#: 400 naming the field, nothing queued', async (body, field, message) => {
+		const before = await counts();
+		const res = await start(engineer, body);
+		expect(res.status).toBe(400);
+		const { error } = await res.json();
+		expect(error.field).toBe(field);
+		expect(error.message).toMatch(message);
+		expect(await counts()).toEqual(before);
+	});
+
+	test("a corner of a car with a model: its keep-out volumes mark variants, and the steering ratio agrees with the solver's steer sweep", async () => {
+		const list = (await (await engineer.fetch(`/api/v1/corners/${SINGLE_SEATER_FRONT_LEFT}/revisions`)).json()).revisions as { id: string; number: number }[];
+		const rev = list.find((r) => r.number === 1)!.id;
+		// 3 levels over ±2 mm: the middle level is no move at all, so variant 4 (digits 1, 1) is the corner as it is
+		const res = await engineer.json(`/api/v1/revisions/${rev}/explore`, 'POST', {
+			coordinates: [
+				{ point: 'steer.inner', axis: 'z', from: -2, to: 2 },
+				{ point: 'steer.outer', axis: 'z', from: -2, to: 2 }
+			],
+			plan: 'factorial',
+			levels: 3,
+			measures: ['toe_rms', 'steer_ratio'],
+			travel: { from: -20, to: 20, step: 4 }
+		});
+		expect(res.status).toBe(201);
+		const view = await res.json();
+		expect(view.keepOut).toEqual(['Front rim barrel', 'Gearbox casing']);
+		await solveWith(1, view.id);
+		const page = await (await viewer.fetch(`/api/v1/explorations/${view.id}/variants?ok=all&limit=500`)).json();
+		expect(page.total).toBe(9);
+		const ok = page.rows.filter((r: { ok: boolean }) => r.ok);
+		expect(ok.length).toBeGreaterThan(0);
+		for (const r of ok) expect(typeof r.clear).toBe('boolean');
+		const clear = (await (await viewer.fetch(`/api/v1/explorations/${view.id}/variants?ok=clear`)).json()).total;
+		const blocked = (await (await viewer.fetch(`/api/v1/explorations/${view.id}/variants?ok=blocked`)).json()).total;
+		expect(clear + blocked).toBe(ok.length);
+		// The steering ratio by its definition (steering-wheel angle over road-wheel angle, SAE J670 "overall steering
+		// ratio"), derived here from the revision's own steer sweep: rack ±1 mm is ±6° of steering wheel at 60 mm a turn.
+		const sweep = await (await viewer.fetch(`/api/v1/revisions/${rev}/solve?sweep=steer&from=-1&to=1&step=1`)).json();
+		const toe = (rack: number) => sweep.samples.find((x: { rack: number }) => x.rack === rack).toe;
+		const expected = 12 / Math.abs(toe(1) - toe(-1));
+		const unmoved = page.rows.find((r: { idx: number }) => r.idx === 4);
+		expect(unmoved.ok).toBe(true);
+		expect(unmoved.steer_ratio).toBeGreaterThan(expected * 0.99);
+		expect(unmoved.steer_ratio).toBeLessThan(expected * 1.01);
+	});
+
+	test('the front of three objectives: no variant dominates a front point, and every other variant is dominated (brute force, derived here)', async () => {
+		const res = await start(engineer, { variants: 1500, seed: 31, measures: ['toe_rms', 'rc_height', 'rc_migration'] });
+		const id = (await res.json()).id;
+		await solveWith(1, id);
+		const body = await (await viewer.fetch(`/api/v1/explorations/${id}/pareto?x=toe_rms&y=rc_migration&z=rc_height&zSense=max&cloud=0`)).json();
+		expect(body.z).toBe('rc_height');
+		const rows = (await rowsOf(id)).filter((r) => r.ok).map((r) => ({ idx: r.idx, o: [r.toe!, r.mig!, -r.rc!] }));
+		const dominates = (a: number[], b: number[]) => a.every((v, k) => v <= b[k]) && a.some((v, k) => v < b[k]);
+		const onFront = new Set(body.front.map((p: { idx: number }) => p.idx));
+		expect(onFront.size).toBeGreaterThan(2);
+		for (const r of rows) expect(rows.some((q) => dominates(q.o, r.o))).toBe(!onFront.has(r.idx));
+		const bad = await viewer.fetch(`/api/v1/explorations/${id}/pareto?x=toe_rms&y=rc_migration&z=toe_rms`);
+		expect((await bad.json()).error.field).toBe('z');
+	});
+});
+
 describe('faults', () => {
 	test('kill -9 of a worker process mid-run: another worker finishes the study and every row equals an uninterrupted solve', async () => {
 		const { spawn } = await import('node:child_process');
@@ -208,7 +306,7 @@ describe('faults', () => {
 		for (let c = 0; c < 12; c++) {
 			const r = solveChunk(ev, spec, c * 1000, 1000);
 			for (let v = 0; v < 1000; v++) {
-				const f = (k: number) => (Number.isNaN(r.values[v * 5 + k]) ? null : Math.fround(r.values[v * 5 + k]));
+				const f = (k: number) => (Number.isNaN(r.values[v * 6 + k]) ? null : Math.fround(r.values[v * 6 + k]));
 				expected.push({ idx: c * 1000 + v, ok: r.ok[v] === 1, toe: f(0), camber: f(1), rc: f(2), mig: f(3), mr: f(4) });
 			}
 		}

@@ -106,6 +106,7 @@ const TABLE: Record<string, string> = {
 	'POST /api/v1/explorations/[explorationId=id]/cancel': TEAM_EDIT,
 	'GET /api/v1/explorations/[explorationId=id]/variants': TEAM_VIEW,
 	'GET /api/v1/explorations/[explorationId=id]/pareto': TEAM_VIEW,
+	'GET /api/v1/explorations/[explorationId=id]/matrix': TEAM_VIEW,
 	'POST /api/v1/explorations/[explorationId=id]/save': TEAM_EDIT,
 	'POST /api/v1/revisions/[revisionId=id]/sensitivity': TEAM_VIEW,
 	'POST /api/v1/revisions/[revisionId=id]/ride-height': TEAM_VIEW,

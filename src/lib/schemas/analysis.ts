@@ -104,11 +104,17 @@ export const pointToleranceSchema = z.object({
 	mode: z.enum(['axis', 'sphere'], { message: "must be 'axis' or 'sphere'" }).default('axis')
 });
 
+/** A tolerance study of this many samples or more is split into chunks on the job queue (issue 18); fewer run in the request. */
+export const QUEUED_TOLERANCE_SAMPLES = 20_000;
+/** The most samples a study takes (every sample's curves are kept until the bands are taken: about 1 KB each). */
+export const MAX_TOLERANCE_SAMPLES = 100_000;
+
 export const toleranceStudyInput = z.object({
 	/** per point; points left out get `default` */
 	points: z.partialRecord(point, pointToleranceSchema).default({}),
 	default: pointToleranceSchema.default({ mm: 0.5, mode: 'axis' }),
-	samples: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(50, 'must be ≥ 50').max(20000, 'must be ≤ 20000').default(2000),
+	/** from QUEUED_TOLERANCE_SAMPLES on, the study runs through the job queue's workers */
+	samples: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(50, 'must be ≥ 50').max(MAX_TOLERANCE_SAMPLES, `must be ≤ ${MAX_TOLERANCE_SAMPLES}`).default(2000),
 	seed: z.number({ message: 'must be a whole number' }).int('must be a whole number').min(0, 'must be ≥ 0').max(2 ** 32 - 1, 'must be < 2^32').default(1),
 	distribution: z.enum(['normal', 'uniform'], { message: "must be 'normal' or 'uniform'" }).default('normal'),
 	travel: travelSchema.default({ from: -40, to: 40, step: 2 }),

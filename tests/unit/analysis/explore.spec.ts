@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { CornerInput } from '../../../src/lib/server/kinematics/corner';
-import { exploreEvaluator, paretoFront, permuteIndex, solveChunk, sobolPoint, unitSample, variantCount, type ExploreSpec } from '../../../src/lib/server/studies/explore';
+import { EXPLORE_MEASURES, exploreEvaluator, paretoFront, paretoFrontN, permuteIndex, solveChunk, sobolPoint, unitSample, variantCount, variantOffsets, type ExploreSpec } from '../../../src/lib/server/studies/explore';
 
 const ROOT = join(import.meta.dirname, '..', '..', '..');
 const rackMoved = JSON.parse(readFileSync(join(ROOT, 'fixtures', 'club-fwd-front-left-rack-moved.json'), 'utf8')) as CornerInput;
@@ -125,6 +125,87 @@ describe('Pareto front (derived here): a point is on it when no other point is a
 	});
 	it('leaves out points without a value (NaN)', () => {
 		expect(paretoFront([1, NaN, 0], [1, 0, 2])).toEqual([2, 0]);
+	});
+});
+
+describe('Pareto front of three objectives (derived here): the non-dominated set against a brute-force dominance check', () => {
+	/** Every point no other point is at least as good as in all three objectives and better in one: O(n²), by definition. */
+	function bruteForce(o: number[][]): number[] {
+		const n = o[0].length;
+		const out: number[] = [];
+		for (let i = 0; i < n; i++) {
+			if (o.some((a) => !Number.isFinite(a[i]))) continue;
+			let dominated = false;
+			for (let j = 0; j < n && !dominated; j++) {
+				if (j === i || o.some((a) => !Number.isFinite(a[j]))) continue;
+				dominated = o.every((a) => a[j] <= a[i]) && o.some((a) => a[j] < a[i]);
+			}
+			if (!dominated) out.push(i);
+		}
+		return out;
+	}
+	it.each([1, 2, 3, 4, 5, 6])('an invented problem, seed %i: 500 points on a coarse grid (ties and duplicates), a few without a value', (seed) => {
+		let s = seed * 2654435761;
+		const rnd = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32);
+		const xs = Array.from({ length: 500 }, () => Math.round(rnd() * 20));
+		const ys = xs.map((x) => Math.round(20 - x + rnd() * 15));
+		const zs = xs.map((x, i) => (i % 97 === 5 ? NaN : Math.round(rnd() * 10 + (x + ys[i]) / 4)));
+		const front = paretoFrontN([xs, ys, zs]).sort((a, b) => a - b);
+		expect(front).toEqual(bruteForce([xs, ys, zs]));
+		expect(front.length).toBeGreaterThan(3);
+	});
+	it('two objectives through the same entry give the two-objective front', () => {
+		const xs = [3, 1, 2, 2, 5];
+		const ys = [1, 3, 2, 2, 0];
+		expect(paretoFrontN([xs, ys]).sort()).toEqual(bruteForce([xs, ys]));
+	});
+	it('a third objective can only add points to the front of the first two (a point off it may win on the third)', () => {
+		const xs = [0, 1, 2];
+		const ys = [0, 1, 2];
+		const zs = [5, 4, 3];
+		expect(paretoFrontN([xs, ys])).toEqual([0]);
+		expect(paretoFrontN([xs, ys, zs]).sort()).toEqual([0, 1, 2]);
+	});
+});
+
+describe('measures chosen per study: only those are solved and stored, with the same values as when all are kept', () => {
+	it('toe RMS and roll-centre migration alone equal the full study in those columns; the others stay empty', () => {
+		const all = spec({ variants: 200 });
+		const some = spec({ variants: 200, measures: ['toe_rms', 'rc_migration'] });
+		const a = solveChunk(exploreEvaluator(rackMoved, all), all, 0, 200);
+		const b = solveChunk(exploreEvaluator(rackMoved, some), some, 0, 200);
+		const m = EXPLORE_MEASURES.length;
+		const col = (r: typeof a, j: number) => Array.from({ length: 200 }, (_, v) => r.values[v * m + j]);
+		expect(Array.from(b.ok)).toEqual(Array.from(a.ok));
+		expect(col(b, 0)).toEqual(col(a, 0));
+		expect(col(b, 3)).toEqual(col(a, 3));
+		for (const j of [1, 2, 4, 5]) expect(col(b, j).every(Number.isNaN)).toBe(true);
+		expect(col(a, 1).filter(Number.isFinite).length).toBeGreaterThan(0);
+	});
+});
+
+describe('keep-out volumes as a constraint (the volumes of src/lib/server/kinematics/keep-out.ts, as in the fix search)', () => {
+	it('a box over the inner tie-rod joint: a variant that raises the joint into it is marked, one that lowers it is clear', () => {
+		// steer.inner is at (-130, 358, 156) on the chassis (it does not move in heave with the rack held): the box
+		// starts at its height, 10 mm wide around it in x and y; the tie rod runs out to y = 655 nearly level
+		const box = { shape: 'box' as const, name: 'rack boot', min: [-140, 353, 156], max: [-120, 363, 300] };
+		const s = spec({ coords: [{ point: 'steer.inner', axis: 2, from: -25, to: 5 }], variants: 300, measures: ['toe_rms'], packaging: { volumes: [box], racks: [], moved: ['steer.inner'], ratio: null } });
+		const r = solveChunk(exploreEvaluator(rackMoved, s), s, 0, 300);
+		expect(r.clear).not.toBeNull();
+		let inside = 0;
+		let below = 0;
+		for (let v = 0; v < 300; v++) {
+			if (!r.ok[v]) continue;
+			const dz = variantOffsets(s, v)[0];
+			if (dz > 0.5) (expect(r.clear![v]).toBe(0), inside++);
+			if (dz < -3) (expect(r.clear![v]).toBe(1), below++);
+		}
+		expect(inside).toBeGreaterThan(10);
+		expect(below).toBeGreaterThan(100);
+	});
+	it('without volumes nothing is marked (clear is null)', () => {
+		const s = spec({ variants: 10 });
+		expect(solveChunk(exploreEvaluator(rackMoved, s), s, 0, 10).clear).toBeNull();
 	});
 });
 

@@ -107,10 +107,14 @@ export function toleranceSpec(geometry: CornerGeometry, input: ToleranceStudyReq
 	return { corner: geometry, grid: input.travel, tolerances, measures, samples: input.samples, seed: input.seed, distribution: input.distribution };
 }
 
-/** Runs the study's samples (worker threads where they start) and builds its result. */
-export async function runToleranceStudy(spec: ToleranceSpec, input: ToleranceStudyRequest, signal: AbortSignal, onProgress: (done: number) => void) {
+/**
+ * Runs the study's samples and builds its result: in this request on worker threads where they start, or, from
+ * QUEUED_TOLERANCE_SAMPLES on, through the job queue (`queued` runs it there). Either way each sample is solved by
+ * runSamples from (seed, index) alone, so the result is the same.
+ */
+export async function runToleranceStudy(spec: ToleranceSpec, input: ToleranceStudyRequest, signal: AbortSignal, onProgress: (done: number) => void, queued?: (spec: ToleranceSpec, signal: AbortSignal, onProgress: (done: number) => void) => Promise<RunOutcome>) {
 	const t0 = performance.now();
-	const run: RunOutcome = await runTolerance(spec, { threads: input.threads, workerCode, signal, onProgress });
+	const run: RunOutcome = queued ? await queued(spec, signal, onProgress) : await runTolerance(spec, { threads: input.threads, workerCode, signal, onProgress });
 	const fo = firstOrder(spec);
 	const nominal = nominalCurves(spec);
 	const measureBands = bands(spec, run.blocks, nominal, fo.total);
@@ -124,6 +128,8 @@ export async function runToleranceStudy(spec: ToleranceSpec, input: ToleranceStu
 		tolerances: spec.tolerances,
 		threads: run.threads,
 		fallback: run.fallback,
+		/** chunks solved by the job queue's workers (0: solved in the request) */
+		queuedChunks: run.queuedChunks ?? 0,
 		ms: Math.round(performance.now() - t0),
 		bands: measureBands,
 		shares: Object.fromEntries(spec.measures.map((m, j) => [m, varianceShares(spec, fo, j)])),

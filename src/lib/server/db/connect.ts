@@ -12,11 +12,15 @@ import * as schema from './schema';
  */
 export const POOL_TIMEOUTS = { connectTimeoutS: 3, statementTimeoutMs: 10_000, idleInTransactionMs: 10_000, maxBackoffS: 1 };
 
-/** Connects to the database at url; max is the pool size; `timeouts` sets POOL_TIMEOUTS (the app's pool). */
-export function connect(url: string, max = 10, { timeouts = false } = {}) {
+/**
+ * Connects to the database at url; max is the pool size; `timeouts` sets POOL_TIMEOUTS (the app's pool);
+ * `asyncCommit` turns synchronous_commit off for this pool's sessions (the queue workers' writes: see explore-worker.ts).
+ */
+export function connect(url: string, max = 10, { timeouts = false, asyncCommit = false } = {}) {
 	const client = postgres(url, {
 		max,
 		onnotice: () => {},
+		...(asyncCommit ? { connection: { synchronous_commit: 'off' } } : {}),
 		...(timeouts
 			? {
 					connect_timeout: POOL_TIMEOUTS.connectTimeoutS,

@@ -220,6 +220,8 @@ export const explorations = pgTable(
 		variants: integer('variants').notNull(),
 		chunkSize: integer('chunk_size').notNull(),
 		chunks: integer('chunks').notNull(),
+		/** chunks stored so far: one counter bumped by the chunk's own transaction (the last one marks the study done) */
+		chunksDone: integer('chunks_done').notNull().default(0),
 		status: text('status', { enum: ['queued', 'done', 'cancelled', 'failed'] }).notNull().default('queued'),
 		error: text('error'),
 		createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
@@ -241,18 +243,27 @@ export const explorationChunks = pgTable(
 	(t) => [primaryKey({ columns: [t.explorationId, t.chunk] })]
 );
 
-/** One row per variant (offsets are recomputed from the spec and index); measures null where it does not assemble. */
+/**
+ * One row per variant (offsets are recomputed from the spec and index); measures null where it does not assemble or
+ * not kept. No foreign key (its check per row doubled the cost of a chunk's write): a variant is written in the
+ * transaction that inserts its chunk's row, whose key does reference the study, and the trigger of migration 0010
+ * deletes a study's variants with it.
+ */
 export const explorationVariants = pgTable(
 	'exploration_variants',
 	{
-		explorationId: uuid('exploration_id').notNull().references(() => explorations.id, { onDelete: 'cascade' }),
+		explorationId: uuid('exploration_id').notNull(),
 		idx: integer('idx').notNull(),
 		ok: boolean('ok').notNull(),
 		toeRms: real('toe_rms'),
 		camberGain: real('camber_gain'),
 		rcHeight: real('rc_height'),
 		rcMigration: real('rc_migration'),
-		motionRatio: real('motion_ratio')
+		motionRatio: real('motion_ratio'),
+		/** this wheel's overall steering ratio at straight ahead (steering-wheel ° per road-wheel °), with the car model's steering */
+		steerRatio: real('steer_ratio'),
+		/** clear of the car model's keep-out volumes through the travel (and at the steering lock); null: none checked */
+		clear: boolean('clear')
 	},
 	(t) => [primaryKey({ columns: [t.explorationId, t.idx] })]
 );
@@ -488,3 +499,33 @@ export type Revision = typeof revisions.$inferSelect;
 export type Role = (typeof ROLES)[number];
 export type ShareLink = typeof shareLinks.$inferSelect;
 export type Invitation = typeof invitations.$inferSelect;
+
+/**
+ * A large tolerance study run through the job queue (issue 18; ≥ 20,000 samples): the engine's spec, and its
+ * chunks' solved samples until the request that queued it has read them (then the row is deleted with its chunks).
+ */
+export const toleranceRuns = pgTable('tolerance_runs', {
+	id: uuid('id').primaryKey().defaultRandom(),
+	revisionId: uuid('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+	spec: jsonb('spec').$type<Record<string, unknown>>().notNull(),
+	samples: integer('samples').notNull(),
+	chunkSize: integer('chunk_size').notNull(),
+	chunks: integer('chunks').notNull(),
+	chunksDone: integer('chunks_done').notNull().default(0),
+	status: text('status', { enum: ['queued', 'done', 'cancelled', 'failed'] }).notNull().default('queued'),
+	error: text('error'),
+	createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+	createdAt: created()
+});
+
+/** One solved chunk of a queued tolerance study: its samples' values (float64, little-endian) and ok flags, written once. */
+export const toleranceChunks = pgTable(
+	'tolerance_chunks',
+	{
+		runId: uuid('run_id').notNull().references(() => toleranceRuns.id, { onDelete: 'cascade' }),
+		chunk: integer('chunk').notNull(),
+		ok: bytea('ok').notNull(),
+		values: bytea('values').notNull()
+	},
+	(t) => [primaryKey({ columns: [t.runId, t.chunk] })]
+);

@@ -10,6 +10,8 @@ export const EXPLORE_QUEUE = 'explore-chunk';
  */
 export const CHUNK_EXPIRE_S = Number(process.env.LW_CHUNK_EXPIRE_S || 120);
 export const CHUNK_RETRIES = 5;
+/** NOTIFY channel that wakes idle workers when chunks are queued (pg-boss would otherwise wait out its polling interval). */
+export const JOBS_CHANNEL = 'explore_jobs';
 
 /** Starts a pg-boss instance on `url` and makes sure the queue exists. `supervise`: run the queue's maintenance. */
 export async function startQueue(url: string, { supervise = false, max = 2 }: { supervise?: boolean; max?: number } = {}): Promise<PgBoss> {
@@ -39,9 +41,16 @@ export async function enqueueChunks(boss: PgBoss, explorationId: string, chunks:
 	const jobs: PgBoss.JobInsert[] = [];
 	for (let c = 0; c < chunks; c++) jobs.push({ name: EXPLORE_QUEUE, data: { explorationId, chunk: c }, retryLimit: CHUNK_RETRIES, retryDelay: 1, expireInSeconds });
 	for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000));
+	await boss.getDb().executeSql(`select pg_notify('${JOBS_CHANNEL}', '')`, []);
 }
 
-export interface ChunkJob {
-	explorationId: string;
-	chunk: number;
+/** Queues chunks 0 … chunks − 1 of a large tolerance study on the same queue (the workers take both kinds). */
+export async function enqueueToleranceChunks(boss: PgBoss, toleranceId: string, chunks: number, expireInSeconds = CHUNK_EXPIRE_S): Promise<void> {
+	const jobs: PgBoss.JobInsert[] = [];
+	for (let c = 0; c < chunks; c++) jobs.push({ name: EXPLORE_QUEUE, data: { toleranceId, chunk: c }, retryLimit: CHUNK_RETRIES, retryDelay: 1, expireInSeconds });
+	for (let i = 0; i < jobs.length; i += 1000) await boss.insert(jobs.slice(i, i + 1000));
+	await boss.getDb().executeSql(`select pg_notify('${JOBS_CHANNEL}', '')`, []);
 }
+
+/** A job of the queue: a chunk of an exploration, or of a large tolerance study. */
+export type ChunkJob = { explorationId: string; chunk: number } | { toleranceId: string; chunk: number };

@@ -6,6 +6,7 @@
 
 import { CornerEvaluator, type Coordinate, type CurveMeasure, type HeaveGrid } from './evaluate';
 import type { CornerInput } from '../kinematics/corner';
+import type { PackagingSpec } from './packaging';
 import { Random } from './random';
 
 export const MAX_COORDINATES = 10;
@@ -33,18 +34,34 @@ export interface ExploreSpec {
 	/** whether the corner gives a roll centre and a motion ratio (false: those measures stay empty) */
 	rollCentre?: boolean;
 	motionRatio?: boolean;
+	/** the measures kept (absent: the first five, as before measures were chosen) */
+	measures?: ExploreMeasure[];
+	/**
+	 * the car model's packaging: keep-out volumes checked through the travel (and at the steering lock), and the
+	 * steering system for the steering ratio; absent: neither
+	 */
+	packaging?: PackagingSpec;
 }
 
-/** The measures stored per variant, in this order. */
-export const EXPLORE_MEASURES = ['toe_rms', 'camber_gain', 'rc_height', 'rc_migration', 'motion_ratio'] as const;
+/** The measures a variant can have, in this order (its row in ChunkResult.values). */
+export const EXPLORE_MEASURES = ['toe_rms', 'camber_gain', 'rc_height', 'rc_migration', 'motion_ratio', 'steer_ratio'] as const;
 export type ExploreMeasure = (typeof EXPLORE_MEASURES)[number];
 export const EXPLORE_MEASURE_INFO: Record<ExploreMeasure, { label: string; unit: string }> = {
 	toe_rms: { label: 'Toe change RMS over the travel', unit: '°' },
 	camber_gain: { label: 'Camber gain at design', unit: '°/mm' },
 	rc_height: { label: 'Roll-centre height at design', unit: 'mm' },
 	rc_migration: { label: 'Roll-centre migration over the travel (max − min)', unit: 'mm' },
-	motion_ratio: { label: 'Motion ratio at design', unit: '' }
+	motion_ratio: { label: 'Motion ratio at design', unit: '' },
+	steer_ratio: { label: 'Steering ratio at straight ahead (steering-wheel ° per road-wheel °)', unit: '' }
 };
+/** What a study keeps when it does not say (the spec of explorations queued before measures were chosen). */
+export const DEFAULT_MEASURES: ExploreMeasure[] = ['toe_rms', 'camber_gain', 'rc_height', 'rc_migration', 'motion_ratio'];
+
+/** The measures a study keeps, in EXPLORE_MEASURES order. */
+export function measuresOf(spec: Pick<ExploreSpec, 'measures'>): ExploreMeasure[] {
+	const want = new Set(spec.measures ?? DEFAULT_MEASURES);
+	return EXPLORE_MEASURES.filter((m) => want.has(m));
+}
 
 /** How many variants a spec has. */
 export function variantCount(spec: Pick<ExploreSpec, 'plan' | 'variants' | 'levels' | 'coords'>): number {
@@ -174,69 +191,97 @@ export function variantOffsets(spec: ExploreSpec, i: number, out = new Float64Ar
 
 // ---------- solving ----------
 
-/** The curves a study solves: toe and camber always, the roll centre and motion ratio where the corner gives them. */
-function curvesOf(spec: Pick<ExploreSpec, 'rollCentre' | 'motionRatio'>): CurveMeasure[] {
-	return ['toe', 'camber', ...(spec.rollCentre !== false ? (['rc_height'] as const) : []), ...(spec.motionRatio !== false ? (['motion_ratio'] as const) : [])];
+type CurveSpec = Pick<ExploreSpec, 'rollCentre' | 'motionRatio' | 'measures'>;
+
+/** The curves a study solves: only those its chosen measures need (the roll centre and motion ratio where the corner gives them). */
+function curvesOf(spec: CurveSpec): CurveMeasure[] {
+	const m = new Set(measuresOf(spec));
+	const out: CurveMeasure[] = [];
+	if (m.has('toe_rms')) out.push('toe');
+	if (m.has('camber_gain')) out.push('camber');
+	if (spec.rollCentre !== false && (m.has('rc_height') || m.has('rc_migration'))) out.push('rc_height');
+	if (spec.motionRatio !== false && m.has('motion_ratio')) out.push('motion_ratio');
+	return out;
 }
 
 /** The evaluator for a study: the corner swept over the grid for its curves (throws when it cannot be assembled as it is). */
-export function exploreEvaluator(corner: CornerInput, spec: Pick<ExploreSpec, 'grid' | 'rollCentre' | 'motionRatio'>): CornerEvaluator {
-	return new CornerEvaluator(corner, spec.grid, curvesOf(spec));
+export function exploreEvaluator(corner: CornerInput, spec: Pick<ExploreSpec, 'grid' | 'packaging'> & CurveSpec): CornerEvaluator {
+	return new CornerEvaluator(corner, spec.grid, curvesOf(spec), spec.packaging);
 }
 
-/** One chunk's results: per variant a 1 (assembles over the whole range) or 0, and the measures (NaN when not). */
+/** One chunk's results: per variant a 1 (assembles over the whole range) or 0, and the measures (NaN when not kept or not assembled). */
 export interface ChunkResult {
 	first: number;
 	count: number;
 	ok: Uint8Array;
 	/** count × EXPLORE_MEASURES.length, row-major */
 	values: Float64Array;
+	/** per variant 1 clear of every keep-out volume, 0 reaching into one (meaningful where ok); null: no volumes checked */
+	clear: Uint8Array | null;
 }
 
-/** Variants [first, first + count) of the study, solved. */
+/** Variants [first, first + count) of the study, solved; only the chosen measures are filled in. */
 export function solveChunk(ev: CornerEvaluator, spec: ExploreSpec, first: number, count: number): ChunkResult {
 	const m = EXPLORE_MEASURES.length;
 	const n = ev.count;
 	const d = ev.design;
 	const names = curvesOf(spec);
+	const keep = new Set(measuresOf(spec));
 	const curves = new Float64Array(names.length * n);
+	const toe = names.indexOf('toe') * n;
+	const camber = names.indexOf('camber') * n;
 	const rc = names.indexOf('rc_height') * n;
 	const mr = names.indexOf('motion_ratio') * n;
+	const pk = ev.packaging;
+	const volumes = pk ? pk.spec.volumes.length : 0;
+	const depths = pk ? new Float64Array(volumes * pk.rows) : undefined;
+	const ratios = pk ? new Float64Array(pk.ratioCount) : undefined;
+	const steer = keep.has('steer_ratio') && pk && pk.ratioCount > 0 ? pk.ratioCount >>> 1 : -1;
+	const want = { toe: toe >= 0, camber: camber >= 0, rcHeight: rc >= 0 && keep.has('rc_height'), rcMigration: rc >= 0 && keep.has('rc_migration'), mr: mr >= 0 };
 	const offsets = new Float64Array(spec.coords.length);
 	const rng = new Random(0);
 	const ok = new Uint8Array(count);
+	const clear = volumes > 0 ? new Uint8Array(count) : null;
 	const values = new Float64Array(count * m).fill(NaN);
 	const h = ev.positions;
 	for (let v = 0; v < count; v++) {
 		variantOffsets(spec, first + v, offsets, rng);
-		if (!ev.evaluate(spec.coords, offsets, curves)) continue;
+		if (!ev.evaluate(spec.coords, offsets, curves, depths, ratios)) continue;
 		ok[v] = 1;
-		const toe = 0;
-		const camber = n;
-		let ss = 0;
-		let rcMin = Infinity;
-		let rcMax = -Infinity;
-		for (let p = 0; p < n; p++) {
-			const dt = curves[toe + p] - curves[toe + d];
-			ss += dt * dt;
-			if (rc >= 0) {
+		const o = v * m;
+		if (want.toe) {
+			let ss = 0;
+			for (let p = 0; p < n; p++) {
+				const dt = curves[toe + p] - curves[toe + d];
+				ss += dt * dt;
+			}
+			values[o] = Math.sqrt(ss / n);
+		}
+		if (want.camber) {
+			const lo = Math.max(0, d - 1);
+			const hi = Math.min(n - 1, d + 1);
+			values[o + 1] = (curves[camber + hi] - curves[camber + lo]) / (h[hi] - h[lo]);
+		}
+		if (want.rcHeight) values[o + 2] = curves[rc + d];
+		if (want.rcMigration) {
+			let rcMin = Infinity;
+			let rcMax = -Infinity;
+			for (let p = 0; p < n; p++) {
 				const r = curves[rc + p];
 				if (r < rcMin) rcMin = r;
 				if (r > rcMax) rcMax = r;
 			}
-		}
-		const lo = Math.max(0, d - 1);
-		const hi = Math.min(n - 1, d + 1);
-		const o = v * m;
-		values[o] = Math.sqrt(ss / n);
-		values[o + 1] = (curves[camber + hi] - curves[camber + lo]) / (h[hi] - h[lo]);
-		if (rc >= 0) {
-			values[o + 2] = curves[rc + d];
 			values[o + 3] = rcMax - rcMin;
 		}
-		if (mr >= 0) values[o + 4] = curves[mr + d];
+		if (want.mr) values[o + 4] = curves[mr + d];
+		if (steer >= 0) values[o + 5] = ratios![steer];
+		if (clear) {
+			let deepest = -Infinity;
+			for (let i = 0; i < depths!.length; i++) if (depths![i] > deepest) deepest = depths![i];
+			clear[v] = deepest <= 0 ? 1 : 0;
+		}
 	}
-	return { first, count, ok, values };
+	return { first, count, ok, values, clear };
 }
 
 // ---------- Pareto front ----------
@@ -264,4 +309,47 @@ export function paretoFront(xs: ArrayLike<number>, ys: ArrayLike<number>): numbe
 		}
 	}
 	return out;
+}
+
+/**
+ * Indices of the Pareto front of any number of objectives, all minimised (negate one to maximise): the points no
+ * other point is at least as good as in every objective and better in one. Points with a non-finite objective are
+ * left out; exact duplicates of a front point are kept (neither dominates the other).
+ * Sorted lexicographically, a point can only be dominated by one before it, and (dominance being transitive) then by
+ * one already on the front; so each point is checked against the front so far: O(n log n + n × front).
+ */
+export function paretoFrontN(objectives: ArrayLike<number>[]): number[] {
+	const k = objectives.length;
+	if (k === 2) return paretoFront(objectives[0], objectives[1]);
+	const n = k ? objectives[0].length : 0;
+	const idx: number[] = [];
+	outer: for (let i = 0; i < n; i++) {
+		for (let j = 0; j < k; j++) if (!Number.isFinite(objectives[j][i])) continue outer;
+		idx.push(i);
+	}
+	idx.sort((a, b) => {
+		for (let j = 0; j < k; j++) {
+			const d = objectives[j][a] - objectives[j][b];
+			if (d) return d;
+		}
+		return a - b;
+	});
+	const front: number[] = [];
+	for (const i of idx) {
+		let dominated = false;
+		for (let f = front.length - 1; f >= 0 && !dominated; f--) {
+			const q = front[f];
+			let le = true;
+			let lt = false;
+			for (let j = 0; j < k && le; j++) {
+				const a = objectives[j][q];
+				const b = objectives[j][i];
+				if (a > b) le = false;
+				else if (a < b) lt = true;
+			}
+			dominated = le && lt;
+		}
+		if (!dominated) front.push(i);
+	}
+	return front;
 }

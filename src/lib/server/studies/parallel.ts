@@ -21,6 +21,8 @@ export interface RunOutcome {
 	threads: number;
 	/** why the study ran on this thread, when it did although threads were asked for */
 	fallback: string | null;
+	/** chunks the job queue's workers solved (a large study; absent: none) */
+	queuedChunks?: number;
 }
 
 /** Thrown when the run was cancelled through its signal. */

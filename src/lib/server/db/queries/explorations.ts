@@ -9,7 +9,8 @@ export const VARIANT_COLUMNS = {
 	camber_gain: explorationVariants.camberGain,
 	rc_height: explorationVariants.rcHeight,
 	rc_migration: explorationVariants.rcMigration,
-	motion_ratio: explorationVariants.motionRatio
+	motion_ratio: explorationVariants.motionRatio,
+	steer_ratio: explorationVariants.steerRatio
 } as const;
 export type VariantColumn = keyof typeof VARIANT_COLUMNS;
 
@@ -46,10 +47,18 @@ export async function explorationForUser(db: Database, userId: string, id: strin
 	return row ?? null;
 }
 
-/** For a worker: the exploration's spec, status and the revision's geometry (no user; workers are trusted). */
-export async function explorationForWorker(db: Database, id: string) {
+/**
+ * For a worker: the exploration's status and size, and with `full` its spec and the revision's geometry (no user;
+ * workers are trusted).
+ */
+export async function explorationForWorker(db: Database, id: string, full = true) {
+	const base = { status: explorations.status, chunkSize: explorations.chunkSize, variants: explorations.variants };
+	if (!full) {
+		const [row] = await db.select(base).from(explorations).where(eq(explorations.id, id));
+		return row ? { ...row, spec: null, geometry: null } : null;
+	}
 	const [row] = await db
-		.select({ spec: explorations.spec, status: explorations.status, chunkSize: explorations.chunkSize, variants: explorations.variants, geometry: revisions.geometry })
+		.select({ ...base, spec: explorations.spec, geometry: revisions.geometry })
 		.from(explorations)
 		.innerJoin(revisions, eq(revisions.id, explorations.revisionId))
 		.where(eq(explorations.id, id));
@@ -117,32 +126,48 @@ function arrayLiteral(values: ArrayLike<number>, step = 1, offset = 0, count = v
 	return `{${parts.join(',')}}`;
 }
 
+/** A solved chunk as storeChunk takes it: per variant ok, the measures (row-major, `measures` a row) and keep-out clearance. */
+export interface StoredChunk {
+	ok: Uint8Array;
+	values: Float64Array;
+	measures: number;
+	clear: Uint8Array | null;
+}
+
 /**
- * Stores one solved chunk in one transaction: the chunk's row first (keyed by exploration + chunk), and only when
- * that row is new, its variants (one batched insert through unnest); then the exploration is marked done when this
- * was the last chunk. A chunk solved twice (a worker killed after writing, a retried job) adds nothing the second time.
- * True when this call wrote the chunk.
+ * Stores one solved chunk in one statement (so one transaction and one round trip): the chunk's row (keyed by
+ * exploration + chunk), and only when that row is new, its variants (unnest of one array per column, measures in
+ * VARIANT_COLUMNS order, null for NaN), the study's counter of chunks done up by one (the study marked done when it
+ * reaches the count) and a NOTIFY for the progress stream. A chunk solved twice (a worker killed after writing, a
+ * retried job) adds nothing the second time.
+ * The counter's update is the only lock on the study's row (no key update: the foreign-key check of other chunks'
+ * rows shares it), so two chunks committing at once queue there for a moment, never deadlock, and the second counts
+ * on from the first's committed value. True when this call wrote the chunk.
  */
-export async function storeChunk(db: Database, id: string, chunk: number, first: number, ok: Uint8Array, values: Float64Array, measures: number) {
-	return db.transaction(async (tx) => {
-		const feasible = ok.reduce((a, b) => a + b, 0);
-		const inserted = await tx.insert(explorationChunks).values({ explorationId: id, chunk, feasible }).onConflictDoNothing().returning({ chunk: explorationChunks.chunk });
-		if (inserted.length === 0) return false;
-		const n = ok.length;
-		const idx = `{${Array.from({ length: n }, (_, i) => first + i).join(',')}}`;
-		const oks = `{${Array.from(ok, (v) => (v ? 't' : 'f')).join(',')}}`;
-		await tx.execute(sql`insert into exploration_variants (exploration_id, idx, ok, toe_rms, camber_gain, rc_height, rc_migration, motion_ratio)
-			select ${id}::uuid, * from unnest(${idx}::int[], ${oks}::bool[], ${arrayLiteral(values, measures, 0, n)}::real[], ${arrayLiteral(values, measures, 1, n)}::real[],
-				${arrayLiteral(values, measures, 2, n)}::real[], ${arrayLiteral(values, measures, 3, n)}::real[], ${arrayLiteral(values, measures, 4, n)}::real[])`);
-		// The study's row is locked before counting, so of two chunks committing at once the second sees the first
-		// (without it, each transaction counts only its own new chunk and neither marks the study done).
-		await tx.execute(sql`select 1 from explorations where id = ${id}::uuid for update`);
-		await tx.execute(sql`update explorations set status = 'done', finished_at = now()
-			where id = ${id}::uuid and status = 'queued' and chunks = (select count(*) from exploration_chunks where exploration_id = ${id}::uuid)`);
-		// delivered at commit to every app instance listening (the progress stream)
-		await tx.execute(sql`select pg_notify(${PROGRESS_CHANNEL}, ${id})`);
-		return true;
-	});
+export async function storeChunk(db: Database, id: string, chunk: number, first: number, r: StoredChunk) {
+	const { ok, values, measures, clear } = r;
+	let feasible = 0;
+	for (let i = 0; i < ok.length; i++) feasible += ok[i];
+	const n = ok.length;
+	const idx = `{${Array.from({ length: n }, (_, i) => first + i).join(',')}}`;
+	const oks = `{${Array.from(ok, (v) => (v ? 't' : 'f')).join(',')}}`;
+	const clears = clear ? `{${Array.from(clear, (v, i) => (ok[i] ? (v ? 't' : 'f') : 'NULL')).join(',')}}` : null;
+	const col = (j: number) => arrayLiteral(values, measures, j, n);
+	const [row] = (await db.execute(sql`with c as (
+			insert into exploration_chunks (exploration_id, chunk, feasible) values (${id}::uuid, ${chunk}, ${feasible})
+			on conflict do nothing returning chunk
+		), v as (
+			insert into exploration_variants (exploration_id, idx, ok, toe_rms, camber_gain, rc_height, rc_migration, motion_ratio, steer_ratio, clear)
+			select ${id}::uuid, u.* from unnest(${idx}::int[], ${oks}::bool[], ${col(0)}::real[], ${col(1)}::real[], ${col(2)}::real[], ${col(3)}::real[], ${col(4)}::real[],
+				${col(5)}::real[], ${clears}::bool[]) as u where exists (select 1 from c)
+		), s as (
+			update explorations set chunks_done = chunks_done + 1,
+				status = case when status = 'queued' and chunks_done + 1 >= chunks then 'done' else status end,
+				finished_at = case when status = 'queued' and chunks_done + 1 >= chunks then now() else finished_at end
+			where id = ${id}::uuid and exists (select 1 from c) returning id
+		)
+		select (select count(*)::int from c) as wrote, (select count(*)::int from s where pg_notify(${PROGRESS_CHANNEL}, ${id}) is not null) as notified`)) as unknown as { wrote: number }[];
+	return row.wrote > 0;
 }
 
 export interface VariantQuery {
@@ -150,8 +175,8 @@ export interface VariantQuery {
 	dir: 'asc' | 'desc';
 	offset: number;
 	limit: number;
-	/** only variants that assemble */
-	okOnly: boolean;
+	/** which variants: all, those that assemble, those that assemble clear of the keep-out volumes, or those that reach into one */
+	ok: 'all' | 'assembles' | 'clear' | 'blocked';
 	/** optional range filters on measures */
 	filters: { column: VariantColumn; min?: number; max?: number }[];
 }
@@ -159,7 +184,10 @@ export interface VariantQuery {
 /** One page of an exploration's variants, sorted and filtered in the database, with the total matching. */
 export async function variantsPage(db: Database, id: string, q: VariantQuery) {
 	const conds = [eq(explorationVariants.explorationId, id)];
-	if (q.okOnly) conds.push(eq(explorationVariants.ok, true));
+	if (q.ok !== 'all') conds.push(eq(explorationVariants.ok, true));
+	// a study without volumes has clear null: every variant that assembles is clear
+	if (q.ok === 'clear') conds.push(sql`${explorationVariants.clear} is not false`);
+	if (q.ok === 'blocked') conds.push(eq(explorationVariants.clear, false));
 	for (const f of q.filters) {
 		const col = VARIANT_COLUMNS[f.column];
 		if (f.min !== undefined) conds.push(sql`${col} >= ${f.min}`);
@@ -176,7 +204,9 @@ export async function variantsPage(db: Database, id: string, q: VariantQuery) {
 			camber_gain: explorationVariants.camberGain,
 			rc_height: explorationVariants.rcHeight,
 			rc_migration: explorationVariants.rcMigration,
-			motion_ratio: explorationVariants.motionRatio
+			motion_ratio: explorationVariants.motionRatio,
+			steer_ratio: explorationVariants.steerRatio,
+			clear: explorationVariants.clear
 		})
 		.from(explorationVariants)
 		.where(where)
@@ -187,13 +217,33 @@ export async function variantsPage(db: Database, id: string, q: VariantQuery) {
 	return { rows, total };
 }
 
-/** Two measures of every variant that assembles (for the scatter and the Pareto front), by index. */
-export async function variantPairs(db: Database, id: string, x: VariantColumn, y: VariantColumn) {
-	return db
-		.select({ idx: explorationVariants.idx, x: VARIANT_COLUMNS[x], y: VARIANT_COLUMNS[y] })
+/** Some measures of every variant that assembles (for the scatter and the Pareto front), by index; `clearOnly`: clear of the keep-out volumes too. */
+export async function variantColumns(db: Database, id: string, columns: VariantColumn[], clearOnly = false) {
+	const pick: Record<string, (typeof VARIANT_COLUMNS)[VariantColumn]> = {};
+	for (const c of columns) pick[c] = VARIANT_COLUMNS[c];
+	const conds = [eq(explorationVariants.explorationId, id), eq(explorationVariants.ok, true)];
+	if (clearOnly) conds.push(sql`${explorationVariants.clear} is not false`);
+	return (await db
+		.select({ idx: explorationVariants.idx, clear: explorationVariants.clear, ...pick })
 		.from(explorationVariants)
-		.where(and(eq(explorationVariants.explorationId, id), eq(explorationVariants.ok, true)))
-		.orderBy(asc(explorationVariants.idx));
+		.where(and(...conds))
+		.orderBy(asc(explorationVariants.idx))) as ({ idx: number; clear: boolean | null } & Record<VariantColumn, number | null>)[];
+}
+
+/**
+ * An even sample of at most `sample` variants that assemble (every k-th by index, chosen in the database), with the
+ * given measures: the scatter-plot matrix.
+ */
+export async function variantSample(db: Database, id: string, columns: VariantColumn[], sample: number) {
+	const where = and(eq(explorationVariants.explorationId, id), eq(explorationVariants.ok, true));
+	const [{ total }] = await db.select({ total: sql<number>`count(*)::int` }).from(explorationVariants).where(where);
+	const step = Math.max(1, Math.ceil(total / sample));
+	// the measure columns are named as in VARIANT_COLUMNS' keys (the API's names), so only those names reach the SQL
+	const cols = sql.raw(columns.filter((c) => c in VARIANT_COLUMNS).map((c) => `, ${VARIANT_COLUMNS[c].name}`).join(''));
+	const rows = await db.execute(sql`select idx, clear${cols} from (
+			select *, row_number() over (order by idx) - 1 as rn from exploration_variants where exploration_id = ${id}::uuid and ok
+		) s where rn % ${step} = 0 order by idx`);
+	return { total, rows: rows as unknown as ({ idx: number; clear: boolean | null } & Record<VariantColumn, number | null>)[] };
 }
 
 /** One variant's row, or null. */

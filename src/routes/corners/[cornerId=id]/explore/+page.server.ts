@@ -1,3 +1,5 @@
+import { kindSpec } from '$lib/kinds';
+import { carPackaging } from '$lib/server/analysis/explore';
 import { loadAnalysisPage } from '$lib/server/analysis/page';
 import { db } from '$lib/server/db';
 import { explorationsOfCorner } from '$lib/server/db/queries/explorations';
@@ -8,5 +10,8 @@ import type { PageServerLoad } from './$types';
 export const load: PageServerLoad = async (event) => {
 	const base = await loadAnalysisPage(event);
 	const list = await explorationsOfCorner(db, base.corner.id);
-	return { ...base, explorations: list };
+	// the car model's packaging: its keep-out volumes are a constraint of every variant; its steering gives the ratio
+	const car = await carPackaging(base.car.id, base.corner.position);
+	const packaging = car ? { carRevision: car.carRevision.number, keepOut: car.keepOut.map((v) => v.name), steering: !!car.steering && kindSpec(base.kind).steers } : null;
+	return { ...base, explorations: list, packaging };
 };

@@ -21,6 +21,8 @@ export interface StudyResult {
 	tolerances: { point: string; mm: number; mode: 'axis' | 'sphere' }[];
 	threads: number;
 	fallback: string | null;
+	/** chunks solved by the job queue's workers (a study of 20,000 samples or more); 0 or absent: in the request */
+	queuedChunks?: number;
 	ms: number;
 	bands: StudyBands[];
 	shares: Record<string, { point: string; share: number }[]>;

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { exploreInput } from '$lib/schemas/explore';
 import { cornerGeometrySchema } from '$lib/schemas/geometry';
-import { explorationView, startExploration } from '$lib/server/analysis/explore';
+import { carPackaging, explorationView, startExploration } from '$lib/server/analysis/explore';
 import { endpoint, parseBody, parseWith } from '$lib/server/api';
 import { requireRevision } from '$lib/server/permissions';
 import type { RequestEvent } from './$types';
@@ -11,6 +11,6 @@ export const POST = endpoint<RequestEvent>(async (event) => {
 	const { revision, corner } = await requireRevision(event, event.params.revisionId, 'edit');
 	const input = await parseBody(event, exploreInput);
 	const geometry = parseWith(cornerGeometrySchema, revision.geometry);
-	const row = await startExploration(geometry, { cornerId: corner.id, revisionId: revision.id, userId: event.locals.user!.id }, input);
+	const row = await startExploration(geometry, { cornerId: corner.id, revisionId: revision.id, userId: event.locals.user!.id }, input, await carPackaging(corner.carId, corner.position));
 	return json(await explorationView(row), { status: 201 });
 });

@@ -1,5 +1,6 @@
 import { cornerGeometrySchema } from '$lib/schemas/geometry';
-import { toleranceStudyInput } from '$lib/schemas/analysis';
+import { QUEUED_TOLERANCE_SAMPLES, toleranceStudyInput } from '$lib/schemas/analysis';
+import { queuedTolerance } from '$lib/server/analysis/tolerance-queue';
 import { runToleranceStudy, toleranceSpec } from '$lib/server/analysis/run';
 import { endpoint, parseBody, parseWith } from '$lib/server/api';
 import { db } from '$lib/server/db';
@@ -12,7 +13,8 @@ import type { RequestEvent } from './$types';
  * Tolerance study, streamed as NDJSON: {"type":"progress","done","total"} lines, then one {"type":"result",
  * "result", "studyId"} (or {"type":"error","error"}). Validation and permissions answer before the stream starts
  * (JSON errors). A client that goes away (an aborted fetch) cancels the stream, which terminates the worker
- * threads; nothing is stored then.
+ * threads (or cancels the queued run); nothing is stored then. From QUEUED_TOLERANCE_SAMPLES samples on, the study's
+ * chunks go to the job queue (analysis/tolerance-queue.ts) and this request waits for the workers.
  */
 export const POST = endpoint<RequestEvent>(async (event) => {
 	const { revision, corner, role } = await requireRevision(event, event.params.revisionId, 'view');
@@ -31,12 +33,25 @@ export const POST = endpoint<RequestEvent>(async (event) => {
 				if (!signal.aborted) controller.enqueue(encoder.encode(JSON.stringify(o) + '\n'));
 			};
 			let last = 0;
+			let sentAt = 0;
 			try {
-				const result = await runToleranceStudy(spec, input, signal, (done) => {
-					if (done - last < spec.samples / 50 && done !== spec.samples) return;
-					send({ type: 'progress', done, total: spec.samples });
-					last = done;
-				});
+				// a large study goes through the job queue's workers (the same samples, so the same result)
+				const queued = spec.samples >= QUEUED_TOLERANCE_SAMPLES ? queuedTolerance({ revisionId: revision.id, userId }) : undefined;
+				const result = await runToleranceStudy(
+					spec,
+					input,
+					signal,
+					(done) => {
+						// at least once a second: the headers go out with the first line, and a client that has gone away is
+						// noticed at a write (a queued study may wait for its workers without new samples for a while)
+						const now = Date.now();
+						if (sentAt && done - last < spec.samples / 50 && done !== spec.samples && now - sentAt < 1000) return;
+						send({ type: 'progress', done, total: spec.samples });
+						last = done;
+						sentAt = now;
+					},
+					queued
+				);
 				let studyId: string | null = null;
 				if (input.study && !signal.aborted) {
 					const { study, ...settings } = input;
