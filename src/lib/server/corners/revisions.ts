@@ -63,9 +63,21 @@ export interface SaveRevision {
 	pointSources?: NewPointSource[];
 }
 
+/** The audit event of a new revision, written in the revision's transaction. */
+function auditCreated(tx: typeof db, input: SaveRevision, row: { id: string; number: number }) {
+	return recordAudit(tx, {
+		teamId: input.car.teamId,
+		actorId: input.userId,
+		action: 'revision.created',
+		subjectType: 'revision',
+		subjectId: row.id,
+		detail: { corner: input.corner.position, number: row.number, source: input.source, car: input.car.name }
+	});
+}
+
 /** Saves a new immutable revision; returns it with the newest number the parent had been superseded by, if any. */
 export async function saveRevision(input: SaveRevision) {
-	const { car, corner, userId, geometry } = input;
+	const { corner, userId, geometry } = input;
 	checkCornerFits(geometry, corner);
 	const parentId = input.parentId ?? (await latestRevision(db, corner.id))?.id ?? null;
 	if (input.parentId && !(await revisionOfCorner(db, corner.id, input.parentId))) {
@@ -80,14 +92,7 @@ export async function saveRevision(input: SaveRevision) {
 		async (tx, row) => {
 			if (corner.kind !== geometry.kind) await setCornerKind(tx, corner.id, geometry.kind);
 			if (input.pointSources) await insertPointSources(tx, row.id, input.pointSources);
-			await recordAudit(tx, {
-				teamId: car.teamId,
-				actorId: userId,
-				action: 'revision.created',
-				subjectType: 'revision',
-				subjectId: row.id,
-				detail: { corner: corner.position, number: row.number, source: input.source, car: car.name }
-			});
+			await auditCreated(tx, input, row);
 		}
 	);
 	// Someone saved after the revision this one started from: the editor says so.
@@ -104,21 +109,15 @@ export async function saveRevisionsTogether(inputs: SaveRevision[]) {
 	return db.transaction(async (tx) => {
 		const out = [];
 		for (const input of inputs) {
-			const { car, corner, userId, geometry } = input;
+			const { corner, userId, geometry } = input;
 			const parentId = input.parentId ?? (await latestRevision(tx as unknown as typeof db, corner.id))?.id ?? null;
 			const revision = await appendRevision(
 				tx as unknown as typeof db,
 				{ cornerId: corner.id, kind: geometry.kind, geometry, label: input.label, note: input.note, parentId, authorId: userId },
 				undefined,
 				async (inner, row) => {
-					await recordAudit(inner, {
-						teamId: car.teamId,
-						actorId: userId,
-						action: 'revision.created',
-						subjectType: 'revision',
-						subjectId: row.id,
-						detail: { corner: corner.position, number: row.number, source: input.source, car: car.name }
-					});
+					if (corner.kind !== geometry.kind) await setCornerKind(inner, corner.id, geometry.kind);
+					await auditCreated(inner, input, row);
 				}
 			);
 			out.push({ corner, revision });

@@ -59,17 +59,24 @@ export async function createScan(car: Car, userId: string, input: NewScanInput) 
 		await abortUpload(objectKey, uploadId);
 		throw e;
 	}
-	const scan = await insertScan(db, {
-		id,
-		carId: car.id,
-		cornerId: input.cornerId ?? null,
-		name: input.name,
-		format,
-		sizeBytes: input.size,
-		objectKey,
-		uploadId,
-		createdBy: userId
-	});
+	let scan: Scan;
+	try {
+		scan = await insertScan(db, {
+			id,
+			carId: car.id,
+			cornerId: input.cornerId ?? null,
+			name: input.name,
+			format,
+			sizeBytes: input.size,
+			objectKey,
+			uploadId,
+			createdBy: userId
+		});
+	} catch (e) {
+		// no row to sweep it later: the started upload goes now (nothing half-stored)
+		await abortUpload(objectKey, uploadId).catch(() => undefined);
+		throw e;
+	}
 	return { scan: scanView(scan), partSize, parts: urls.map((url, i) => ({ partNumber: i + 1, url })) };
 }
 
