@@ -1,10 +1,10 @@
 // Revision A against revision B: which points moved, and how each figure changed through heave.
 import { joinRocker, measuresNotApplying } from '$lib/kinds';
 import type { CornerGeometry } from '$lib/schemas/geometry';
-import { judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure } from '$lib/schemas/targets';
+import { changeLabel, judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure } from '$lib/schemas/targets';
 import type { Sample } from '$lib/server/kinematics';
 import { solveCorner } from './solve';
-import { lengthText, toUnit, type LengthUnit } from '$lib/units';
+import { lengthText, type LengthUnit } from '$lib/units';
 
 import { DEFAULT_POSITIONS } from '$lib/schemas/compare';
 
@@ -57,12 +57,12 @@ function summary(key: TargetMeasure, a: Sample[], b: Sample[], lu: LengthUnit) {
 	const sb = changeSpread(b, key, SUMMARY_RANGE);
 	const range = lu === 'mm' ? `±${SUMMARY_RANGE} mm` : `±${lengthText(SUMMARY_RANGE, lu, 1)} in`;
 	if (sa === null || sb === null) return `${label}: the sweep does not reach ${range} for both revisions.`;
-	// a length change in the reader's unit (0.1 mm, 0.001 in), judged "the same" at the shown precision
-	const dd = unit === 'mm' ? (lu === 'in' ? d + 2 : d) : d;
+	// a length change in the reader's unit (0.1 mm, 0.001 in)
 	const shown = (v: number) => (unit === 'mm' ? lengthText(v, lu, d) : v.toFixed(d));
-	const same = Math.abs(unit === 'mm' ? toUnit(sb - sa, lu) : sb - sa) < 0.5 * 10 ** -dd;
+	// in inches, the same when the two read the same at 0.001 in (mm as before: closer than half the last digit)
+	const same = unit === 'mm' && lu !== 'mm' ? shown(sa) === shown(sb) : Math.abs(sb - sa) < 0.5 * 10 ** -d;
 	const u = unit === 'mm' ? ` ${lu}` : unit;
-	return `${label} change over ${range} ${same ? 'stays at' : 'goes from'} ${shown(sa)}${u}${same ? '' : ` to ${shown(sb)}${u}`}.`;
+	return `${changeLabel(key)} over ${range} ${same ? 'stays at' : 'goes from'} ${shown(sa)}${u}${same ? '' : ` to ${shown(sb)}${u}`}.`;
 }
 
 /** Everything the compare page shows, solved on the server. */
