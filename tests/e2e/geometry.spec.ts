@@ -237,4 +237,12 @@ test('inches: an engineer who works in inches reads and types the points in inch
 	await page.getByRole('button', { name: 'Show' }).click();
 	await expect(figures.getByRole('columnheader', { name: '+1.5', exact: true })).toBeVisible();
 	await page.screenshot({ path: 'test-results/screens/compare-inches.png' });
+
+	// the study report in inches: the points (14.5 in typed), the moved Δy and the travel headings
+	await page.goto(`/corners/${corner.id}/report`);
+	const row = page.getByTestId('report-points').locator('[data-point="steer.inner"]');
+	await expect(row.getByRole('cell').nth(2)).toHaveText('14.500');
+	await expect(row.getByRole('cell').nth(5)).toHaveText('0.406');
+	await expect(page.getByTestId('report-figures').getByRole('columnheader', { name: '+2', exact: true })).toBeVisible();
+	await expect(page.getByRole('heading', { name: /Figures through heave/ })).toContainText('(in, + bump)');
 });
