@@ -4,7 +4,7 @@ import { describe, expect, test } from 'vitest';
 import { editValue, fromUnit, lengthText, shownUnit, toUnit, typedLength } from '../../src/lib/units';
 import { positionsTextIn, positionsToText, defaultPositions } from '../../src/lib/schemas/compare';
 import { describeTarget } from '../../src/lib/schemas/targets';
-import { sheetCsv } from '../../src/lib/server/sharing/sheet-csv';
+import { axleSheetCsv, sheetCsv } from '../../src/lib/server/sharing/sheet-csv';
 import { pointsCsv } from '../../src/lib/server/corners/present';
 import { parseCell } from '../../src/routes/corners/[cornerId=id]/point-rows';
 
@@ -62,5 +62,11 @@ describe('lengths in inches', () => {
 		const t = { measure: 'rc_height', basis: 'change', min: -12.7, max: 12.7, from: -50.8, to: 50.8 } as const;
 		expect(describeTarget(t as never, 'in')).toBe('Roll-centre height change within ±0.500 in over -2…2 in');
 		expect(describeTarget(t as never)).toBe('Roll-centre height change within ±12.7mm over -50.8…50.8 mm');
+	});
+
+	test('the axle sheet CSV in inches: columns named _in, values at 0.001 in; mm as before', () => {
+		const rows = [{ side: 'left', name: 'lower.front', label: 'Lower arm, front pivot', xyz: [254, -25.4, 0.00001] }];
+		expect(axleSheetCsv(rows as never, 'in').trim().split(/\r?\n/)).toEqual(['side,point,description,x_in,y_in,z_in', 'left,lower.front,"Lower arm, front pivot",10.000,-1.000,0.000']);
+		expect(axleSheetCsv(rows as never).trim().split(/\r?\n/)[1]).toBe('left,lower.front,"Lower arm, front pivot",254.0,-25.4,0.0');
 	});
 });
