@@ -245,4 +245,19 @@ test('inches: an engineer who works in inches reads and types the points in inch
 	await expect(row.getByRole('cell').nth(5)).toHaveText('0.406');
 	await expect(page.getByTestId('report-figures').getByRole('columnheader', { name: '+2', exact: true })).toBeVisible();
 	await expect(page.getByRole('heading', { name: /Figures through heave/ })).toContainText('(in, + bump)');
+
+	// a target typed in inches on the car page: a roll-centre band of ±0.5 in over ±1 in is stored as ±12.7 mm over ±25.4 mm
+	await page.goto(`/cars/${car.id}`);
+	await page.locator('select[name="measure"]').selectOption('rc_height');
+	await page.getByLabel('Min').fill('-0.5');
+	await page.getByLabel('Max').fill('0.5');
+	await page.getByLabel('From (in)').fill('-1');
+	await page.getByLabel('To (in)').fill('1');
+	await page.getByRole('button', { name: 'Add target' }).click();
+	await expect(page.getByTestId('car-targets')).toContainText('Roll-centre height change within ±0.500 in over -1…1 in');
+	const stored = (await (await page.request.get(`/api/v1/cars/${car.id}`)).json()).targets[0];
+	expect(stored.min).toBeCloseTo(-12.7, 9);
+	expect(stored.max).toBeCloseTo(12.7, 9);
+	expect(stored.from).toBeCloseTo(-25.4, 9);
+	expect(stored.to).toBeCloseTo(25.4, 9);
 });
