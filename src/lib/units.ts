@@ -26,6 +26,19 @@ export function lengthText(mm: number, unit: LengthUnit, mmDecimals = 1): string
 	return Number(s) === 0 ? (0).toFixed(d) : s;
 }
 
+/** A length in mm as a number to put in an input in `unit`: mm as they are, inches to a micro-inch (no visible rounding). */
+export const editValue = (mm: number, unit: LengthUnit) => (unit === 'mm' ? mm : Number(toUnit(mm, unit).toFixed(6)));
+
+/** A value typed in an input in `unit` (a decimal comma accepted), in mm; blank is null, anything else not a number NaN. */
+export function typedLength(text: string | number | null | undefined, unit: LengthUnit): number | null {
+	if (text === null || text === undefined) return null;
+	const t = String(text).trim().replace(',', '.');
+	return t === '' ? null : fromUnit(Number(t), unit);
+}
+
+/** The unit to show beside a sweep or chart axis: a length axis in the user's unit, any other (°, %) as it is. */
+export const shownUnit = (axisUnit: string, unit: LengthUnit) => (axisUnit === 'mm' ? unit : axisUnit);
+
 const KEY = Symbol('lw-length-unit');
 
 /** Sets the page's length unit for the components below (the layout does it from the signed-in user). */

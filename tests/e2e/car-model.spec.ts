@@ -85,5 +85,15 @@ test('the engineer shares the front axle; a fabricator without an account reads 
 	expect(r[2]).toBeCloseTo(l[2], 1);
 	await expect(sheet.getByTestId('axle-sheet-steering')).toBeVisible();
 	await sheet.screenshot({ path: 'test-results/screens/axle-sheet.png', fullPage: true });
+	// the fabricator switches to inches: the same points ÷ 25.4 (1 in = 25.4 mm, NIST SP 811) at 0.001 in, the link says so
+	await sheet.getByRole('button', { name: 'in', exact: true }).click();
+	await expect(sheet.getByTestId('axle-sheet-unit')).toContainText('inches');
+	expect(new URL(sheet.url()).searchParams.get('unit')).toBe('in');
+	const inches = await cells('left');
+	for (let i = 0; i < 3; i++) expect(inches[i]).toBeCloseTo(l[i] / 25.4, 2);
+	const csvHref = (await sheet.getByTestId('axle-sheet-csv').getAttribute('href'))!;
+	expect(csvHref).toMatch(/\/csv\?unit=in$/);
+	const csv = (await (await sheet.request.get(csvHref)).text()).trim().split(/\r?\n/);
+	expect(csv[0]).toBe('side,point,description,x_in,y_in,z_in');
 	await fabricator.close();
 });

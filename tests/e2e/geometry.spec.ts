@@ -196,13 +196,68 @@ test('inches: an engineer who works in inches reads and types the points in inch
 	await expect(page.getByRole('columnheader', { name: 'y (in)' })).toBeVisible();
 	// the charts' lengths are in inches too
 	await expect(page.getByText(/Half-track change \(in\)/).first()).toBeVisible();
+	// the tyre's loaded radius: 290 mm = 11.417323 in (÷ 25.4, to a micro-inch), labelled in inches
+	const radius = page.getByLabel('Tyre loaded radius (in)');
+	await expect(radius).toHaveValue('11.417323');
+	// the 3-D view reads out in inches (0.001 in) and its travel slider runs ±80 mm = ±3.150 in (80 ÷ 25.4 = 3.1496)
+	await expect(page.getByTestId('linkage-readout')).toContainText(/RC height −?\d+\.\d{3} in/);
+	await expect(page.getByTestId('linkage-readout')).toContainText(/FVIC (y −?\d+\.\d{3}, z −?\d+\.\d{3}|arm lines parallel) in/);
+	await expect(page.getByTestId('linkage-position')).toContainText(/ 0\.000 in/);
+	const slider = page.getByRole('slider', { name: 'Wheel travel, + bump position' });
+	await slider.focus();
+	await page.keyboard.press('End');
+	await expect(page.getByTestId('linkage-position')).toContainText('+3.150 in');
+	// the sweep's range is typed in inches too
+	await expect(page.getByLabel('To (in)')).toHaveValue('3.149606');
 	await y.fill('14.5');
 	await page.keyboard.press('Tab');
+	await radius.fill('11.4');
 	await page.getByLabel('Label', { exact: true }).fill('inch edit');
 	await page.getByRole('button', { name: 'Save as new revision' }).click();
 	await expect(page.getByText(/Saved as r2/)).toBeVisible();
 	const revs = await (await page.request.get(`/api/v1/corners/${corner.id}/revisions?limit=1`)).json();
 	const saved = await (await page.request.get(`/api/v1/revisions/${revs.revisions[0].id}`)).json();
 	expect(saved.geometry.points['steer.inner'][1]).toBeCloseTo(14.5 * 25.4, 9);
+	// 11.4 in typed is 289.56 mm stored (× 25.4)
+	expect(saved.geometry.tyre.loaded_radius).toBeCloseTo(289.56, 9);
 	await page.screenshot({ path: 'test-results/screens/workspace-inches.png' });
+
+	// the compare page in inches: positions ±1, ±2 in by default, the moved point's Δy in inches
+	await page.goto(`/corners/${corner.id}/compare`);
+	await expect(page.getByLabel('Travel positions for the figures (in, + bump)')).toHaveValue('-2, -1, 0, 1, 2');
+	const figures = page.getByTestId('figures');
+	for (const heading of ['-2', '-1', '0', '+1', '+2']) await expect(figures.getByRole('columnheader', { name: heading, exact: true })).toBeVisible();
+	await expect(page.getByRole('heading', { name: /Points that moved/ })).toContainText('B − A, in');
+	// Δy = 14.5 in − 358 mm ÷ 25.4 = 14.5 − 14.094488 = 0.406 in (to 0.001 in)
+	const moved = page.getByTestId('moved-points').getByRole('row').filter({ hasText: 'steer.inner' });
+	await expect(moved.getByRole('cell').nth(2)).toHaveText('0.406');
+	await expect(figures.getByRole('rowheader', { name: 'Half-track change (in)' })).toBeVisible();
+	// a position typed in inches: 1.5 in is 38.1 mm for the solve, shown back as +1.5
+	await page.getByLabel('Travel positions for the figures (in, + bump)').fill('0, 1.5');
+	await page.getByRole('button', { name: 'Show' }).click();
+	await expect(figures.getByRole('columnheader', { name: '+1.5', exact: true })).toBeVisible();
+	await page.screenshot({ path: 'test-results/screens/compare-inches.png' });
+
+	// the study report in inches: the points (14.5 in typed), the moved Δy and the travel headings
+	await page.goto(`/corners/${corner.id}/report`);
+	const row = page.getByTestId('report-points').locator('[data-point="steer.inner"]');
+	await expect(row.getByRole('cell').nth(2)).toHaveText('14.500');
+	await expect(row.getByRole('cell').nth(5)).toHaveText('0.406');
+	await expect(page.getByTestId('report-figures').getByRole('columnheader', { name: '+2', exact: true })).toBeVisible();
+	await expect(page.getByRole('heading', { name: /Figures through heave/ })).toContainText('(in, + bump)');
+
+	// a target typed in inches on the car page: a roll-centre band of ±0.5 in over ±1 in is stored as ±12.7 mm over ±25.4 mm
+	await page.goto(`/cars/${car.id}`);
+	await page.locator('select[name="measure"]').selectOption('rc_height');
+	await page.getByLabel('Min').fill('-0.5');
+	await page.getByLabel('Max').fill('0.5');
+	await page.getByLabel('From (in)').fill('-1');
+	await page.getByLabel('To (in)').fill('1');
+	await page.getByRole('button', { name: 'Add target' }).click();
+	await expect(page.getByTestId('car-targets')).toContainText('Roll-centre height change within ±0.500 in over -1…1 in');
+	const stored = (await (await page.request.get(`/api/v1/cars/${car.id}`)).json()).targets[0];
+	expect(stored.min).toBeCloseTo(-12.7, 9);
+	expect(stored.max).toBeCloseTo(12.7, 9);
+	expect(stored.from).toBeCloseTo(-25.4, 9);
+	expect(stored.to).toBeCloseTo(25.4, 9);
 });

@@ -1,6 +1,7 @@
 // A car's targets: a band per measure over a travel range, e.g. "toe change within ±0.10° over ±40 mm".
 // Client-safe: zod only. Degrees and mm as the solve output.
 import { z } from 'zod';
+import { lengthText, toUnit, type LengthUnit } from '$lib/units';
 
 export const TARGET_MEASURES = ['camber', 'toe', 'caster', 'kpi', 'scrub_radius', 'trail', 'half_track_change', 'rc_height', 'motion_ratio', 'rocker_angle'] as const;
 export type TargetMeasure = (typeof TARGET_MEASURES)[number];
@@ -68,10 +69,13 @@ export function changeLabel(m: TargetMeasure) {
 	return /change$/i.test(label) ? label : `${label} change`;
 }
 
-/** A target in plain words, e.g. "Toe change within ±0.10° over −40…40 mm". */
-export function describeTarget(t: Target) {
+/** A target in plain words, e.g. "Toe change within ±0.10° over −40…40 mm"; lengths in `lengthUnit` (the target stays mm). */
+export function describeTarget(t: Target, lengthUnit: LengthUnit = 'mm') {
 	const { label, unit } = measureWords(t.measure);
 	const d = unit === '°' ? 2 : unit === '' ? 3 : 1;
-	const band = t.min === -t.max ? `within ±${t.max.toFixed(d)}${unit}` : `between ${t.min.toFixed(d)} and ${t.max.toFixed(d)}${unit}`;
-	return `${t.basis === 'change' ? changeLabel(t.measure) : label} ${band} over ${t.from}…${t.to} mm`;
+	const value = (v: number) => (unit === 'mm' ? lengthText(v, lengthUnit, d) : v.toFixed(d));
+	const suffix = unit === 'mm' && lengthUnit === 'in' ? ' in' : unit;
+	const band = t.min === -t.max ? `within ±${value(t.max)}${suffix}` : `between ${value(t.min)} and ${value(t.max)}${suffix}`;
+	const travel = (v: number) => (lengthUnit === 'mm' ? String(v) : String(Number(toUnit(v, lengthUnit).toFixed(3))));
+	return `${t.basis === 'change' ? changeLabel(t.measure) : label} ${band} over ${travel(t.from)}…${travel(t.to)} ${lengthUnit}`;
 }

@@ -1,9 +1,10 @@
 // Revision A against revision B: which points moved, and how each figure changed through heave.
 import { joinRocker, measuresNotApplying } from '$lib/kinds';
 import type { CornerGeometry } from '$lib/schemas/geometry';
-import { judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure } from '$lib/schemas/targets';
+import { changeLabel, judge, measureWords, TARGET_MEASURES, type Target, type TargetMeasure } from '$lib/schemas/targets';
 import type { Sample } from '$lib/server/kinematics';
 import { solveCorner } from './solve';
+import { lengthText, type LengthUnit } from '$lib/units';
 
 import { DEFAULT_POSITIONS } from '$lib/schemas/compare';
 
@@ -49,19 +50,24 @@ function changeSpread(samples: Sample[], key: TargetMeasure, range: number) {
 }
 
 /** A plain sentence for one measure, e.g. "Toe change over ±40 mm goes from 0.03° to 2.31°". */
-function summary(key: TargetMeasure, a: Sample[], b: Sample[]) {
+function summary(key: TargetMeasure, a: Sample[], b: Sample[], lu: LengthUnit) {
 	const { label, unit } = measureWords(key);
 	const d = unit === '°' ? 2 : unit === '' ? 3 : 1;
 	const sa = changeSpread(a, key, SUMMARY_RANGE);
 	const sb = changeSpread(b, key, SUMMARY_RANGE);
-	if (sa === null || sb === null) return `${label}: the sweep does not reach ±${SUMMARY_RANGE} mm for both revisions.`;
-	const same = Math.abs(sb - sa) < 0.5 * 10 ** -d;
-	const u = unit === 'mm' ? ' mm' : unit;
-	return `${label} change over ±${SUMMARY_RANGE} mm ${same ? 'stays at' : 'goes from'} ${sa.toFixed(d)}${u}${same ? '' : ` to ${sb.toFixed(d)}${u}`}.`;
+	const range = lu === 'mm' ? `±${SUMMARY_RANGE} mm` : `±${lengthText(SUMMARY_RANGE, lu, 1)} in`;
+	if (sa === null || sb === null) return `${label}: the sweep does not reach ${range} for both revisions.`;
+	// a length change in the reader's unit (0.1 mm, 0.001 in)
+	const shown = (v: number) => (unit === 'mm' ? lengthText(v, lu, d) : v.toFixed(d));
+	// in inches, the same when the two read the same at 0.001 in (mm as before: closer than half the last digit)
+	const same = unit === 'mm' && lu !== 'mm' ? shown(sa) === shown(sb) : Math.abs(sb - sa) < 0.5 * 10 ** -d;
+	const u = unit === 'mm' ? ` ${lu}` : unit;
+	return `${changeLabel(key)} over ${range} ${same ? 'stays at' : 'goes from'} ${shown(sa)}${u}${same ? '' : ` to ${shown(sb)}${u}`}.`;
 }
 
 /** Everything the compare page shows, solved on the server. */
-export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: Target[], positions: number[] = DEFAULT_POSITIONS) {
+/** `unit`: the reader's length unit for the summary sentences (every number returned stays mm). */
+export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: Target[], positions: number[] = DEFAULT_POSITIONS, unit: LengthUnit = 'mm') {
 	const sweep = compareSweep(positions);
 	const sa = solveCorner(a, sweep);
 	const sb = solveCorner(b, sweep);
@@ -79,7 +85,7 @@ export function compareRevisions(a: CornerGeometry, b: CornerGeometry, targets: 
 			const vb = valueOf(pb[i], key);
 			return { travel, a: va, b: vb, delta: va === null || vb === null ? null : vb - va };
 		}),
-		summary: summary(key, sa.samples, sb.samples)
+		summary: summary(key, sa.samples, sb.samples, unit)
 	}));
 	return {
 		positions,

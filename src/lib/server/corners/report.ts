@@ -7,9 +7,12 @@ import type { Target } from '$lib/schemas/targets';
 import { jointAngles, type JointSetting } from '$lib/server/kinematics/joint-angles';
 import { compareRevisions } from './compare';
 import { solveCorner } from './solve';
+import { defaultPositions } from '$lib/schemas/compare';
+import type { LengthUnit } from '$lib/units';
 
-export function cornerReport(a: CornerGeometry, b: CornerGeometry, targets: Target[], jointSettings: Record<string, Partial<JointSetting>>) {
-	const compare = compareRevisions(a, b, targets);
+/** `unit`: the reader's length unit (the travel positions ±1, ±2 in and the summaries in it; every number stays mm). */
+export function cornerReport(a: CornerGeometry, b: CornerGeometry, targets: Target[], jointSettings: Record<string, Partial<JointSetting>>, unit: LengthUnit = 'mm') {
+	const compare = compareRevisions(a, b, targets, defaultPositions(unit), unit);
 	const steers = kindSpec(b.kind).steers && kindSpec(a.kind).steers;
 	const roll = { from: -3, to: 3, step: 0.25 };
 	const steer = { from: -40, to: 40, step: 2 };

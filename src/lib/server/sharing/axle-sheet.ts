@@ -15,7 +15,6 @@ import { axleShareToOpen, createAxleShareLink, sharesOfCarRevision } from '$lib/
 import type { Car, CarRevision } from '$lib/server/db/schema';
 import { absoluteUrl } from '$lib/server/urls';
 import { axleSweep, figuresOrInvalid, loadCarRevision } from '$lib/server/cars/model';
-import { toCsv } from '$lib/csv';
 import { recordShareOpen } from './opens';
 import { limitOpenings, refuseClosedLink } from './sheet';
 import { linkStatus, withPending } from './shares';
@@ -144,7 +143,5 @@ export async function buildAxleSheet(opened: NonNullable<Awaited<ReturnType<type
 }
 
 /** The axle sheet's points as CSV: side, point, description, x, y, z (mm at 0.1, ISO 8855 vehicle axes). */
-export function axleSheetCsv(rows: AxlePointRow[]) {
-	const tenth = (v: number) => (Number(v.toFixed(1)) === 0 ? '0.0' : v.toFixed(1));
-	return toCsv([['side', 'point', 'description', 'x_mm', 'y_mm', 'z_mm'], ...rows.map((r) => [r.side, r.name, r.label, ...r.xyz.map(tenth)])]);
-}
+/** The axle sheet's points as CSV (in sheet-csv.ts: pure, tested without a database). */
+export { axleSheetCsv } from './sheet-csv';

@@ -28,3 +28,9 @@ export function sheetCsv(rows: SheetRow[], withTolerance: boolean, unit: LengthU
 	});
 	return toCsv([head, ...lines]);
 }
+
+/** The axle sheet's points: side, point, description, x, y, z at 0.1 mm, or (`unit` 'in') at 0.001 in in columns named `_in`. */
+export function axleSheetCsv(rows: { side: string; name: string; label: string; xyz: number[] }[], unit: LengthUnit = 'mm') {
+	const len = (v: number) => lengthText(v, unit, 1);
+	return toCsv([['side', 'point', 'description', `x_${unit}`, `y_${unit}`, `z_${unit}`], ...rows.map((r) => [r.side, r.name, r.label, ...r.xyz.map(len)])]);
+}

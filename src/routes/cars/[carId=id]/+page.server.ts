@@ -1,6 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { cornerInput } from '$lib/schemas/corner';
-import { targetSchema, targetsSchema } from '$lib/schemas/targets';
+import { measureWords, TARGET_MEASURES, targetSchema, targetsSchema } from '$lib/schemas/targets';
+import { mmPer } from '$lib/units';
 import { db } from '$lib/server/db';
 import { recordAudit } from '$lib/server/db/queries/audit';
 import { cornersOfCar, createCorner } from '$lib/server/db/queries/corners';
@@ -28,6 +29,10 @@ export const actions: Actions = {
 		const form = Object.fromEntries(await event.request.formData()) as Record<string, string>;
 		const raw: Record<string, unknown> = { ...form };
 		for (const k of numberFields) raw[k] = form[k] === undefined || form[k].trim() === '' ? undefined : Number(form[k].replace(',', '.'));
+		// typed in the user's length unit: the travel range, and the band of a length measure; stored in mm
+		const per = mmPer(event.locals.user?.lengthUnit ?? 'mm');
+		const lengthBand = (TARGET_MEASURES as readonly string[]).includes(form.measure) && measureWords(form.measure as (typeof TARGET_MEASURES)[number]).unit === 'mm';
+		for (const k of lengthBand ? numberFields : (['from', 'to'] as const)) if (typeof raw[k] === 'number') raw[k] = (raw[k] as number) * per;
 		const parsed = targetSchema.safeParse(raw);
 		if (!parsed.success) return fail(400, { targetError: `${parsed.error.issues[0].path.join('.')}: ${parsed.error.issues[0].message}` });
 		const targets = [...targetsSchema.catch([]).parse(car.targets), parsed.data];

@@ -2,7 +2,7 @@ import { error } from '@sveltejs/kit';
 import { z } from 'zod';
 import { cornerGeometrySchema } from '$lib/schemas/geometry';
 import { targetsSchema } from '$lib/schemas/targets';
-import { DEFAULT_POSITIONS, positionsText } from '$lib/schemas/compare';
+import { defaultPositions, positionsTextIn, positionsToText } from '$lib/schemas/compare';
 import { compareRevisions } from '$lib/server/corners/compare';
 import { db } from '$lib/server/db';
 import { revisionOfCorner, revisionsOfCorner } from '$lib/server/db/queries/corners';
@@ -26,10 +26,12 @@ export const load: PageServerLoad = async (event) => {
 	const ga = cornerGeometrySchema.parse(a.geometry);
 	const gb = cornerGeometrySchema.parse(b.geometry);
 	const targets = targetsSchema.catch([]).parse(car.targets);
-	// Chosen travel positions (?at=-50,-25,0,25,50); a bad list is named on the page and the defaults are used.
+	// Chosen travel positions (?at=-50,-25,0,25,50), typed in the user's length unit (?at=-2,-1,0,1,2 in inches);
+	// a bad list is named on the page and the defaults are used. The solve gets mm.
+	const unit = event.locals.user?.lengthUnit ?? 'mm';
 	const atText = event.url.searchParams.get('at');
-	const parsed = atText === null ? null : positionsText.safeParse(atText);
-	const positions = parsed?.success ? parsed.data : DEFAULT_POSITIONS;
+	const parsed = atText === null ? null : positionsTextIn(unit).safeParse(atText);
+	const positions = parsed?.success ? parsed.data : defaultPositions(unit);
 	const positionsProblem = parsed && !parsed.success ? parsed.error.issues[0].message : null;
 	return {
 		car: { id: car.id, name: car.name },
@@ -37,8 +39,8 @@ export const load: PageServerLoad = async (event) => {
 		revisions: list.map((r) => ({ id: r.id, number: r.number, label: r.label })),
 		a: { id: a.id, number: a.number, label: a.label },
 		b: { id: b.id, number: b.number, label: b.label },
-		atText: atText ?? DEFAULT_POSITIONS.join(', '),
+		atText: atText ?? positionsToText(defaultPositions(unit), unit),
 		positionsProblem,
-		result: compareRevisions(ga, gb, targets, positions)
+		result: compareRevisions(ga, gb, targets, positions, unit)
 	};
 };

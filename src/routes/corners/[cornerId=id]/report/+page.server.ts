@@ -38,6 +38,6 @@ export const load: PageServerLoad = async (event) => {
 		alone: a.id === b.id,
 		labels,
 		targets,
-		report: cornerReport(cornerGeometrySchema.parse(a.geometry), cornerGeometrySchema.parse(b.geometry), targets, corner.jointSettings ?? {})
+		report: cornerReport(cornerGeometrySchema.parse(a.geometry), cornerGeometrySchema.parse(b.geometry), targets, corner.jointSettings ?? {}, event.locals.user?.lengthUnit ?? 'mm')
 	};
 };
