@@ -11,6 +11,7 @@
 // Gauss–Newton, on the rim (the convex hull of the in-plane points of the patch).
 // Cylinder: Gauss–Newton on the distances to the axis minus the radius, started from each principal direction of
 // the patch, the best kept (common practice; no single published start).
+import { cross, dot, norm, unit } from '../vec';
 import { NormalEquations, solve, symmetricEigen3 } from './linear';
 
 export type V3 = [number, number, number];
@@ -56,14 +57,6 @@ export class FitError extends Error {
 		this.name = 'FitError';
 	}
 }
-
-const dot = (a: ArrayLike<number>, b: ArrayLike<number>) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a: ArrayLike<number>, b: ArrayLike<number>): V3 => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
-const norm = (a: ArrayLike<number>) => Math.sqrt(dot(a, a));
-const unit = (a: ArrayLike<number>): V3 => {
-	const n = norm(a);
-	return [a[0] / n, a[1] / n, a[2] / n];
-};
 
 function count(points: ArrayLike<number>, least: number, what: string) {
 	const n = Math.floor(points.length / 3);

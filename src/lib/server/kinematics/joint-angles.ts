@@ -11,6 +11,7 @@
 // The bodies' rotations from design come from three points of each body (an orthonormal frame at design and at the
 // pose); the chassis and the rack only translate.
 import { kindSpec, type BodyName } from '../../kinds';
+import { cross, dot, norm, sub, unit } from '../../vec';
 import { solveSweep, type CornerInput, type SweepKind } from './index';
 
 export type JointType = 'ball' | 'rod_end';
@@ -65,14 +66,6 @@ export interface JointAngles {
 	pass: boolean;
 }
 
-const sub = (a: ArrayLike<number>, b: ArrayLike<number>): V => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
-const dot = (a: ArrayLike<number>, b: ArrayLike<number>) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a: ArrayLike<number>, b: ArrayLike<number>): V => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
-const norm = (a: ArrayLike<number>) => Math.sqrt(dot(a, a));
-const unit = (a: ArrayLike<number>): V => {
-	const n = norm(a);
-	return [a[0] / n, a[1] / n, a[2] / n];
-};
 const DEG = 180 / Math.PI;
 const AXES: Record<'x' | 'y' | 'z', V> = { x: [1, 0, 0], y: [0, 1, 0], z: [0, 0, 1] };
 

@@ -8,6 +8,7 @@
 //   contact point is the lowest point of the wheel circle against the ground). t is found on a 0.5 mm heave sweep by
 //   a sign change and linear interpolation, and the measures are read there; camber to the ground is camber + s · φ.
 //   At h = 0 this is the engine's roll sweep (the unit test checks it against that sweep).
+import { sub, unit } from '../../vec';
 import { solveSweep, type CornerInput, type Sample } from './index';
 
 export type MapKind = 'heave_steer' | 'heave_roll';
@@ -95,9 +96,5 @@ export function motionMap(corner: CornerInput, kind: MapKind, heave: MapRange, s
 
 /** The unit spin axis, pointing outboard, of a sample solved with its points. */
 function spinAxis(s: Sample): [number, number, number] {
-	const W = s.points!['wheel.centre'];
-	const I = s.points!['wheel.axis_inner'];
-	const d = [W[0] - I[0], W[1] - I[1], W[2] - I[2]];
-	const l = Math.hypot(d[0], d[1], d[2]);
-	return [d[0] / l, d[1] / l, d[2] / l];
+	return unit(sub(s.points!['wheel.centre'], s.points!['wheel.axis_inner']));
 }
