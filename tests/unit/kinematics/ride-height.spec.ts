@@ -4,7 +4,7 @@
 // figures"), and every chassis point moves down by N.
 import { describe, expect, it } from 'vitest';
 import { solveSweep, type CornerInput } from '../../../src/lib/server/kinematics/index';
-import { atRideHeight } from '../../../src/lib/server/kinematics/ride-height';
+import { atRideHeight, rakeAngle, wheelbaseOf } from '../../../src/lib/server/kinematics/ride-height';
 import { fixture } from './helpers';
 
 // Figures of the wheel against the chassis, the same in both; the ground-referenced ones are checked below.
@@ -49,5 +49,21 @@ describe('ride height as a new design position', () => {
 		expect(lowered.points[fixed][2]).toBeCloseTo((corner.points[fixed] as number[])[2] + change, 9);
 		expect(now.wheel_centre[2]).toBeCloseTo(was.wheel_centre[2] + change, 6);
 		expect(now.contact_patch[2]).toBeCloseTo(was.contact_patch[2] + change, 6);
+	});
+});
+
+describe('rake of the whole car', () => {
+	it('the rear left higher than the front by wheelbase · tan 1° pitches the body 1° nose down (right-angled triangle)', () => {
+		expect(rakeAngle(0, 2500 * Math.tan(Math.PI / 180), 2500)).toBeCloseTo(1, 12);
+		expect(rakeAngle(-20, -20, 2500)).toBe(0);
+		// the front raised more: nose up
+		expect(rakeAngle(10, 0, 2500)).toBeLessThan(0);
+	});
+
+	it('the wheelbase from the wheel centres: mean front x less mean rear x; none without both axles', () => {
+		expect(wheelbaseOf([[1300, 700, 290], [1310, -700, 290]], [[-1295, 690, 300]])).toBe(2600);
+		expect(wheelbaseOf([[1300, 700, 290]], [])).toBeNull();
+		// axles the wrong way round give no wheelbase
+		expect(wheelbaseOf([[-1300, 700, 290]], [[1300, 700, 290]])).toBeNull();
 	});
 });

@@ -4,6 +4,7 @@
 import { error } from '@sveltejs/kit';
 import { cornerGeometrySchema, type CornerGeometry } from '$lib/schemas/geometry';
 import { rideHeightChange, type DesignFigures } from '$lib/server/analysis/ride-height';
+import { rakeAngle, wheelbaseOf } from '$lib/server/kinematics/ride-height';
 import { db } from '$lib/server/db';
 import { cornersOfCar, latestRevision } from '$lib/server/db/queries/corners';
 import type { Car, Corner } from '$lib/server/db/schema';
@@ -16,8 +17,6 @@ export interface CornerChange {
 	after: DesignFigures;
 	geometry: CornerGeometry;
 }
-
-const DEG = 180 / Math.PI;
 
 /** Every corner's figures before and after, and the rake (+ = nose down, degrees) over the wheelbase. */
 export async function carRideHeight(car: Car, front: number, rear: number) {
@@ -45,18 +44,8 @@ export async function carRideHeight(car: Car, front: number, rear: number) {
 		}
 		rows.push({ corner: { id: c.id, position: c.position, kind: c.kind }, revision: { id: rev.id, number: rev.number, label: rev.label }, change, before: result.before, after: result.after, geometry: result.geometry as CornerGeometry });
 	}
-	const wheelbase = car.wheelbaseMm ?? wheelbaseOf(rows);
-	const noseDown = wheelbase ? Math.atan((rear - front) / wheelbase) * DEG : null;
+	const centres = (axle: string) => rows.filter((r) => r.corner.position.startsWith(axle)).map((r) => r.geometry.points['wheel.centre']);
+	const wheelbase = car.wheelbaseMm ?? wheelbaseOf(centres('front'), centres('rear'));
+	const noseDown = wheelbase ? rakeAngle(front, rear, wheelbase) : null;
 	return { front, rear, wheelbase, wheelbaseFrom: car.wheelbaseMm ? 'car' : wheelbase ? 'wheel centres' : null, noseDown, corners: rows };
-}
-
-/** The wheelbase from the corners' wheel centres (front mean x − rear mean x), when both axles have one. */
-function wheelbaseOf(rows: CornerChange[]): number | null {
-	const xs = (axle: string) => rows.filter((r) => r.corner.position.startsWith(axle)).map((r) => r.geometry.points['wheel.centre'][0]);
-	const f = xs('front');
-	const r = xs('rear');
-	if (!f.length || !r.length) return null;
-	const mean = (v: number[]) => v.reduce((a, b) => a + b, 0) / v.length;
-	const wb = mean(f) - mean(r);
-	return wb > 0 ? wb : null;
 }

@@ -30,3 +30,19 @@ export function atRideHeight<T extends CornerInput>(corner: T, change: number): 
 	for (const [name, p] of Object.entries(corner.points)) if (!points[name]) points[name] = shift(p);
 	return { corner: { ...corner, points, ...(rocker ? { rocker } : {}) }, sample };
 }
+
+/**
+ * The body's pitch (degrees, + = nose down) when the front corners change ride height by `front` and the rear by
+ * `rear` (mm, − = lower), over the wheelbase (mm): atan((rear − front) / wheelbase).
+ */
+export function rakeAngle(front: number, rear: number, wheelbase: number): number {
+	return (Math.atan((rear - front) / wheelbase) * 180) / Math.PI;
+}
+
+/** The wheelbase from the wheel centres' x (mean front − mean rear), or null without both axles or when not positive. */
+export function wheelbaseOf(front: readonly (readonly number[])[], rear: readonly (readonly number[])[]): number | null {
+	if (!front.length || !rear.length) return null;
+	const meanX = (c: readonly (readonly number[])[]) => c.reduce((a, p) => a + p[0], 0) / c.length;
+	const wb = meanX(front) - meanX(rear);
+	return wb > 0 ? wb : null;
+}

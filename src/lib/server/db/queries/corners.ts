@@ -53,25 +53,6 @@ export async function revisionForUser(db: Database, userId: string, revisionId: 
 	return row ?? null;
 }
 
-/** A corner's revisions, newest first, with the author's name (no geometry). */
-export function revisionsOfCorner(db: Database, cornerId: string) {
-	return db
-		.select({
-			id: revisions.id,
-			number: revisions.number,
-			label: revisions.label,
-			note: revisions.note,
-			kind: revisions.kind,
-			parentId: revisions.parentId,
-			createdAt: revisions.createdAt,
-			authorName: users.name
-		})
-		.from(revisions)
-		.leftJoin(users, eq(users.id, revisions.authorId))
-		.where(eq(revisions.cornerId, cornerId))
-		.orderBy(desc(revisions.number));
-}
-
 /** The columns of a revision list row (no geometry). */
 const listColumns = {
 	id: revisions.id,
@@ -83,6 +64,16 @@ const listColumns = {
 	createdAt: revisions.createdAt,
 	authorName: users.name
 };
+
+/** A corner's revisions, newest first, with the author's name (no geometry). */
+export function revisionsOfCorner(db: Database, cornerId: string) {
+	return db
+		.select(listColumns)
+		.from(revisions)
+		.leftJoin(users, eq(users.id, revisions.authorId))
+		.where(eq(revisions.cornerId, cornerId))
+		.orderBy(desc(revisions.number));
+}
 
 /** A LIKE pattern matching `word` anywhere, with LIKE's own wildcards taken literally. */
 function containing(word: string) {

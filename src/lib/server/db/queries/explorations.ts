@@ -74,7 +74,7 @@ export function explorationsOfCorner(db: Database, cornerId: string) {
 			chunks: explorations.chunks,
 			status: explorations.status,
 			createdAt: explorations.createdAt,
-			done: sql<number>`(select count(*)::int from exploration_chunks c where c.exploration_id = "explorations"."id")`
+			done: explorations.chunksDone
 		})
 		.from(explorations)
 		.where(eq(explorations.cornerId, cornerId))
