@@ -150,6 +150,16 @@ test('joint angles: an engineer reads every joint through the sweeps, tightens a
 	await page.getByLabel('Limit of Upper ball joint (°)').fill('');
 	await page.getByRole('button', { name: 'Save limits and axes for this corner' }).click();
 	await expect(page.getByTestId('joints-saved')).toContainText('Saved: 0 joints');
+	// another revision: its own angles, from the page's load. The demo's r3 has the rack-moved tie-rod inner joint and a
+	// 12 mm spacer under the outer one, r1 neither (fixtures/demo): the inner rod end's largest angle differs.
+	const revision = page.getByRole('combobox', { name: 'Revision' });
+	const inner = page.locator('tr[data-joint="steer.inner"]').getByTestId('joint-max');
+	await revision.selectOption({ label: 'r3 spacer 12 mm' });
+	await expect(page.getByRole('heading', { name: /^r3 spacer 12 mm: 6 joints$/ })).toBeVisible();
+	const onR3 = await inner.textContent();
+	await revision.selectOption({ label: 'r1 stock' });
+	await expect(page.getByRole('heading', { name: /^r1 stock: 6 joints$/ })).toBeVisible();
+	await expect(inner).not.toHaveText(onR3!);
 });
 
 test('combined motions: bump steer at lock as a map, and heave × roll', async ({ page }) => {

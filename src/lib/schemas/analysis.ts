@@ -188,6 +188,13 @@ export const jointAnglesInput = z.object({
 	joints: jointSettingsSchema.optional()
 });
 
+/** A motion map's ranges until the engineer types others (wheel travel and rack in mm, roll in degrees). */
+export const MAP_DEFAULT_RANGES: Readonly<Record<'heave' | 'steer' | 'roll', Readonly<{ from: number; to: number; step: number }>>> = {
+	heave: { from: -40, to: 40, step: 5 },
+	steer: { from: -40, to: 40, step: 5 },
+	roll: { from: -3, to: 3, step: 0.5 }
+};
+
 /** Cells per side of a motion map, at most. */
 export const MAX_MAP_SIDE = 41;
 
