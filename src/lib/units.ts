@@ -1,6 +1,7 @@
 // Length units for display: every length is stored in millimetres (vehicle axes); a user may read and type them in
 // inches instead (1 in = 25.4 mm exactly: the international inch, NIST SP 811 appendix B). Client-safe.
 import { getContext, setContext } from 'svelte';
+import { fixed } from './format';
 
 export const LENGTH_UNITS = ['mm', 'in'] as const;
 export type LengthUnit = (typeof LENGTH_UNITS)[number];
@@ -38,6 +39,17 @@ export function typedLength(text: string | number | null | undefined, unit: Leng
 
 /** The unit to show beside a sweep or chart axis: a length axis in the user's unit, any other (°, %) as it is. */
 export const shownUnit = (axisUnit: string, unit: LengthUnit) => (axisUnit === 'mm' ? unit : axisUnit);
+
+/** A figure of a measure whose own unit is `figUnit`, to `d` decimals: a length (mm) in `unit`, anything else as it is. */
+export function figureText(v: number, figUnit: string, d: number, unit: LengthUnit): string {
+	return figUnit === 'mm' ? lengthText(v, unit, d) : fixed(v, d);
+}
+
+/** A travel position (mm) as a column heading in `unit`: "+25", "−1.5" in mm, "+1", "−0.5" in inches. */
+export function travelHeading(mm: number, unit: LengthUnit): string {
+	const v = Number(toUnit(mm, unit).toFixed(unit === 'mm' ? 1 : 3));
+	return v > 0 ? `+${v}` : String(v);
+}
 
 const KEY = Symbol('lw-length-unit');
 

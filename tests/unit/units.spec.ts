@@ -1,7 +1,7 @@
 // Length units for display: 1 in = 25.4 mm exactly (the international inch; NIST Special Publication 811,
 // appendix B.8). Stored values stay mm; inches are shown and typed, and converted back at full precision.
 import { describe, expect, test } from 'vitest';
-import { editValue, fromUnit, lengthText, shownUnit, toUnit, typedLength } from '../../src/lib/units';
+import { editValue, figureText, fromUnit, lengthText, shownUnit, toUnit, travelHeading, typedLength } from '../../src/lib/units';
 import { positionsTextIn, positionsToText, defaultPositions } from '../../src/lib/schemas/compare';
 import { describeTarget } from '../../src/lib/schemas/targets';
 import { axleSheetCsv, sheetCsv } from '../../src/lib/server/sharing/sheet-csv';
@@ -17,6 +17,15 @@ describe('lengths in inches', () => {
 		expect(lengthText(-50.8, 'in', 1)).toBe('-2.000');
 		expect(lengthText(-0.0001, 'in', 1)).toBe('0.000');
 		expect(lengthText(312.44, 'mm', 1)).toBe('312.4');
+	});
+
+	test('figures and travel headings: lengths follow the unit, degrees and ratios do not', () => {
+		expect(figureText(25.4, 'mm', 1, 'in')).toBe('1.000');
+		expect(figureText(-1.23456, '°', 3, 'in')).toBe('-1.235');
+		expect(figureText(-0.0001, '', 3, 'mm')).toBe('0.000');
+		expect(travelHeading(25.4, 'in')).toBe('+1');
+		expect(travelHeading(-12.7, 'in')).toBe('-0.5');
+		expect(travelHeading(-25, 'mm')).toBe('-25');
 	});
 
 	test('a value typed in inches is stored in mm; the range check is in mm and says so in inches', () => {

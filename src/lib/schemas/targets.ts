@@ -69,6 +69,17 @@ export function changeLabel(m: TargetMeasure) {
 	return /change$/i.test(label) ? label : `${label} change`;
 }
 
+/**
+ * A judged target as a chart band in absolute values (around the design value of `samples` for a change target), with
+ * its words and verdict.
+ */
+export function targetBand(result: TargetResult, samples: readonly Sample[], lengthUnit: LengthUnit = 'mm') {
+	const { target } = result;
+	const design = samples.find((s) => s.travel === 0)?.[target.measure] ?? 0;
+	const base = target.basis === 'change' ? (design ?? 0) : 0;
+	return { x0: target.from, x1: target.to, y0: base + target.min, y1: base + target.max, label: describeTarget(target, lengthUnit), pass: result.pass };
+}
+
 /** A target in plain words, e.g. "Toe change within ±0.10° over −40…40 mm"; lengths in `lengthUnit` (the target stays mm). */
 export function describeTarget(t: Target, lengthUnit: LengthUnit = 'mm') {
 	const { label, unit } = measureWords(t.measure);
