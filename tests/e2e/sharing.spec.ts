@@ -146,7 +146,9 @@ test('the study report of a comparison prints to PDF with the points, what moved
 	// against the baseline r1 by default
 	await page.getByLabel('Revision reported').selectOption({ label: 'r2 rack moved' });
 	await expect(page.getByText('Set against r1')).toBeVisible();
-	await expect(page.locator('tr[data-point="steer.inner"]')).toContainText('-15.0');
+	// the demo's r2 moved the rack-end joint from (−130, 358, 176) to (−145, 358, 196) (fixtures/demo/front-left-*.json):
+	// Δx −15.0, Δz +20.0; nothing else moved
+	await expect(page.locator('tr[data-point="steer.inner"] td')).toHaveText(['Tie rod, inner joint steer.inner', '-145.0', '358.0', '196.0', '-15.0', '0.0', '20.0']);
 	await expect(page.locator('tr[data-point="lower.front"]')).toContainText('unchanged');
 	await expect(page.getByTestId('report-targets')).toContainText('not met');
 	await expect(page.getByTestId('report-joints')).toContainText('Upper ball joint');
